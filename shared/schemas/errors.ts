@@ -1,0 +1,24 @@
+import { z } from "zod";
+
+/** The one JSON error shape every API route answers with. */
+export const ApiErrorBodySchema = z.object({
+  error: z.object({
+    code: z.string(),
+    message: z.string(),
+    details: z.unknown().optional(),
+  }),
+});
+export type ApiErrorBody = z.infer<typeof ApiErrorBodySchema>;
+
+/** Error codes the server uses; the client may branch on them. */
+export const ERROR_CODES = [
+  "bad_request",
+  "validation_failed",
+  "unauthenticated",
+  "forbidden",
+  "not_found",
+  "conflict",
+  "rate_limited",
+  "internal",
+] as const;
+export type ErrorCode = (typeof ERROR_CODES)[number];
