@@ -1,0 +1,187 @@
+/**
+ * Bit-true model of a complex integer FIR for golden vectors: y[n] = Σ_k h[k]·x[n−k] over the full
+ * convolution (Nx + Nh − 1 outputs), exact integer multiply-accumulate on I and Q, then an arithmetic
+ * right shift by `outputShift` with the chosen rounding, then saturate or wrap to `outputBits`.
+ *
+ * Exactness: with M = max(|x_re|, |x_im|) over the input and S = Σ_k (|h_re[k]| + |h_im[k]|), every
+ * product and every partial sum of either accumulator is an integer of magnitude ≤ M·S (triangle
+ * inequality). Float64 holds every integer of magnitude ≤ 2^53 exactly, so if M·S ≤ 2^53 each `*` and
+ * `+` below is exact and the float path equals integer arithmetic; otherwise the BigInt path runs.
+ * No FFT: its round-off would make the result approximate.
+ */
+import { absoluteCodeSum, accumulatorGrowth, checkSignedCodes } from "./accumulator";
+import { checkInteger, checkSignal, MAX_SAMPLES } from "./check";
+import { checkOverflowMode, checkRoundingMode, integerRange, roundToInteger, wrapInteger } from "./quantize";
+import type { OverflowMode, RoundingMode } from "./types";
+
+/** Integer I/Q samples (exact integers in float64 or plain arrays). */
+export interface IntegerSignal {
+  re: ArrayLike<number>;
+  im: ArrayLike<number>;
+}
+
+/** Parameters of the bit-true filter. */
+export interface BitTrueOptions {
+  input: IntegerSignal;
+  coefficients: IntegerSignal;
+  /** Right shift applied to the accumulator before rounding (0..256). */
+  outputShift: number;
+  rounding: RoundingMode;
+  overflow: OverflowMode;
+  /** Signed output width, 2..53 (outputs are stored exactly in float64). */
+  outputBits: number;
+  /** Signed input width, 2..32: every input code must fit. */
+  inputBits: number;
+  /** Signed coefficient width, 2..32: every coefficient code must fit. */
+  coefficientBits: number;
+}
+
+/** Output codes of the bit-true filter and how they were computed. */
+export interface BitTrueResult {
+  re: Float64Array;
+  im: Float64Array;
+  /** Output components (I and Q counted separately) that exceeded `outputBits` before saturate/wrap. */
+  overflowCount: number;
+  /** Worst-case accumulator width for the declared input and coefficient widths (accumulatorGrowth). */
+  accumulatorBits: number;
+  exactPath: "float64" | "bigint";
+}
+
+/** Largest integer magnitude the float path may meet (every integer up to it is exact in float64). */
+export const FLOAT_EXACT_LIMIT = 2 ** 53;
+
+/**
+ * acc / 2^shift rounded to an integer with the given mode, exactly, in BigInt.
+ * `>>` on BigInt is floor division by 2^shift; the remainder decides the other modes.
+ */
+export function shiftRoundBigInt(acc: bigint, shift: number, mode: RoundingMode): bigint {
+  if (shift === 0) return acc;
+  const s = BigInt(shift);
+  const q = acc >> s;
+  const r = acc - (q << s); // 0 ≤ r < 2^shift
+  if (r === 0n || mode === "floor") return q;
+  if (mode === "toward-zero") return acc < 0n ? q + 1n : q;
+  const half = 1n << (s - 1n);
+  if (r > half) return q + 1n;
+  if (r < half) return q;
+  if (mode === "nearest-away") return acc > 0n ? q + 1n : q;
+  return (q & 1n) === 0n ? q : q + 1n; // nearest-even
+}
+
+function largestMagnitude(x: IntegerSignal): number {
+  let m = 0;
+  for (let i = 0; i < x.re.length; i++) {
+    const a = Math.abs(x.re[i]!);
+    const b = Math.abs(x.im[i]!);
+    if (a > m) m = a;
+    if (b > m) m = b;
+  }
+  return m;
+}
+
+function convolveFloat(x: IntegerSignal, h: IntegerSignal, accRe: Float64Array, accIm: Float64Array): void {
+  const xr = Float64Array.from(x.re);
+  const xi = Float64Array.from(x.im);
+  const hr = Float64Array.from(h.re);
+  const hi = Float64Array.from(h.im);
+  const nx = xr.length;
+  const nh = hr.length;
+  for (let n = 0; n < accRe.length; n++) {
+    const kLo = n - nx + 1 > 0 ? n - nx + 1 : 0;
+    const kHi = n < nh - 1 ? n : nh - 1;
+    let ar = 0;
+    let ai = 0;
+    for (let k = kLo; k <= kHi; k++) {
+      const a = hr[k]!;
+      const b = hi[k]!;
+      const c = xr[n - k]!;
+      const d = xi[n - k]!;
+      ar += a * c - b * d;
+      ai += a * d + b * c;
+    }
+    accRe[n] = ar;
+    accIm[n] = ai;
+  }
+}
+
+function convolveBigInt(x: IntegerSignal, h: IntegerSignal, ny: number): { re: bigint[]; im: bigint[] } {
+  const xr = Array.from(x.re, BigInt);
+  const xi = Array.from(x.im, BigInt);
+  const hr = Array.from(h.re, BigInt);
+  const hi = Array.from(h.im, BigInt);
+  const re: bigint[] = new Array<bigint>(ny);
+  const im: bigint[] = new Array<bigint>(ny);
+  for (let n = 0; n < ny; n++) {
+    const kLo = Math.max(0, n - xr.length + 1);
+    const kHi = Math.min(n, hr.length - 1);
+    let ar = 0n;
+    let ai = 0n;
+    for (let k = kLo; k <= kHi; k++) {
+      ar += hr[k]! * xr[n - k]! - hi[k]! * xi[n - k]!;
+      ai += hr[k]! * xi[n - k]! + hi[k]! * xr[n - k]!;
+    }
+    re[n] = ar;
+    im[n] = ai;
+  }
+  return { re, im };
+}
+
+/** Runs the bit-true complex FIR; outputs are exact integer codes of `outputBits`-bit signed words. */
+export function bitTrueFilter(opts: BitTrueOptions): BitTrueResult {
+  if (opts == null || typeof opts !== "object") throw new TypeError("options must be an object");
+  const { input, coefficients, outputShift, rounding, overflow, outputBits, inputBits, coefficientBits } = opts;
+  checkInteger("inputBits", inputBits, 2, 32);
+  checkInteger("coefficientBits", coefficientBits, 2, 32);
+  checkInteger("outputBits", outputBits, 2, 53);
+  checkInteger("outputShift", outputShift, 0, 256);
+  checkRoundingMode("rounding", rounding);
+  checkOverflowMode("overflow", overflow);
+  checkSignal("input", input);
+  checkSignal("coefficients", coefficients);
+  checkSignedCodes("input.re", input.re, inputBits);
+  checkSignedCodes("input.im", input.im, inputBits);
+  const ny = input.re.length + coefficients.re.length - 1;
+  if (ny > MAX_SAMPLES) throw new RangeError(`output would have ${ny} samples; at most ${MAX_SAMPLES} are allowed`);
+  // Also checks the coefficient codes against coefficientBits.
+  const { worstCaseBits } = accumulatorGrowth(inputBits, coefficientBits, coefficients);
+
+  const { min, max } = integerRange(outputBits, true);
+  const re = new Float64Array(ny);
+  const im = new Float64Array(ny);
+  let overflowCount = 0;
+  const bound = BigInt(largestMagnitude(input)) * absoluteCodeSum(coefficients);
+  const exactPath = bound <= BigInt(FLOAT_EXACT_LIMIT) ? "float64" : "bigint";
+
+  if (exactPath === "float64") {
+    convolveFloat(input, coefficients, re, im);
+    const step = 2 ** -outputShift; // exact: |acc| ≤ 2^53 and a power-of-two scale loses no bits
+    for (const y of [re, im]) {
+      for (let n = 0; n < ny; n++) {
+        let c = roundToInteger(y[n]! * step, rounding);
+        if (c > max || c < min) {
+          overflowCount++;
+          c = overflow === "saturate" ? (c > max ? max : min) : wrapInteger(c, outputBits, true);
+        }
+        y[n] = c + 0; // + 0 turns −0 into 0
+      }
+    }
+  } else {
+    const acc = convolveBigInt(input, coefficients, ny);
+    const bMin = BigInt(min);
+    const bMax = BigInt(max);
+    for (const [src, dst] of [
+      [acc.re, re],
+      [acc.im, im],
+    ] as const) {
+      for (let n = 0; n < ny; n++) {
+        let c = shiftRoundBigInt(src[n]!, outputShift, rounding);
+        if (c > bMax || c < bMin) {
+          overflowCount++;
+          c = overflow === "saturate" ? (c > bMax ? bMax : bMin) : BigInt.asIntN(outputBits, c);
+        }
+        dst[n] = Number(c);
+      }
+    }
+  }
+  return { re, im, overflowCount, accumulatorBits: worstCaseBits, exactPath };
+}

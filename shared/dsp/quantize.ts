@@ -1,0 +1,196 @@
+/**
+ * Fixed-point quantizer: scale, round, then saturate or wrap into a W-bit word, value = code · 2^-F.
+ * Uniform quantization as in Oppenheim & Schafer, *Discrete-Time Signal Processing*, ch. 6; rounding
+ * names after IEEE 754-2019 §4.3, overflow names after IEEE 1076-2008 fixed_pkg (fixed_saturate, fixed_wrap).
+ * Every step is exact in float64: scaling by a power of two is exact, `u - floor(u)` is exact, and
+ * `%` on doubles (fmod) is exact, so codes are the integers the definitions give.
+ */
+import { checkInteger, checkSignal } from "./check";
+import type { ComplexSignal, FixedPointSpec, OverflowMode, QuantizedTable, RoundingMode } from "./types";
+
+/** Limits of the fixed-point format (DESIGN.md): W 2..32, F −64..96. */
+export const WORD_LENGTH_RANGE = { min: 2, max: 32 } as const;
+export const FRACTION_LENGTH_RANGE = { min: -64, max: 96 } as const;
+
+const ROUNDING_MODES: readonly RoundingMode[] = ["nearest-away", "nearest-even", "floor", "toward-zero"];
+const OVERFLOW_MODES: readonly OverflowMode[] = ["saturate", "wrap"];
+const SCALING_MODES = ["as-given", "normalize", "full-scale"] as const;
+
+/** Throws RangeError/TypeError naming the field when a rounding mode name is unknown. */
+export function checkRoundingMode(name: string, mode: unknown): asserts mode is RoundingMode {
+  if (typeof mode !== "string") throw new TypeError(`${name} must be a string`);
+  if (!ROUNDING_MODES.includes(mode as RoundingMode))
+    throw new RangeError(`${name} must be one of ${ROUNDING_MODES.join(", ")}, got "${mode}"`);
+}
+
+/** Throws RangeError/TypeError naming the field when an overflow mode name is unknown. */
+export function checkOverflowMode(name: string, mode: unknown): asserts mode is OverflowMode {
+  if (typeof mode !== "string") throw new TypeError(`${name} must be a string`);
+  if (!OVERFLOW_MODES.includes(mode as OverflowMode))
+    throw new RangeError(`${name} must be one of ${OVERFLOW_MODES.join(", ")}, got "${mode}"`);
+}
+
+/** Validates a FixedPointSpec; throws RangeError/TypeError naming the offending field. */
+export function checkFixedPointSpec(spec: FixedPointSpec): void {
+  if (spec == null || typeof spec !== "object") throw new TypeError("spec must be a fixed-point spec object");
+  checkInteger("spec.wordLength", spec.wordLength, WORD_LENGTH_RANGE.min, WORD_LENGTH_RANGE.max);
+  checkInteger("spec.fractionLength", spec.fractionLength, FRACTION_LENGTH_RANGE.min, FRACTION_LENGTH_RANGE.max);
+  if (typeof spec.signed !== "boolean") throw new TypeError("spec.signed must be a boolean");
+  if (!SCALING_MODES.includes(spec.scaling))
+    throw new RangeError(`spec.scaling must be one of ${SCALING_MODES.join(", ")}, got "${String(spec.scaling)}"`);
+  checkRoundingMode("spec.rounding", spec.rounding);
+  checkOverflowMode("spec.overflow", spec.overflow);
+}
+
+/** Smallest and largest integer code of a W-bit word: signed [−2^(W−1), 2^(W−1)−1], unsigned [0, 2^W−1]. */
+export function integerRange(wordLength: number, signed: boolean): { min: number; max: number } {
+  return signed ? { min: -(2 ** (wordLength - 1)), max: 2 ** (wordLength - 1) - 1 } : { min: 0, max: 2 ** wordLength - 1 };
+}
+
+/** Code range of a spec (checked). */
+export function codeRange(spec: FixedPointSpec): { min: number; max: number } {
+  checkFixedPointSpec(spec);
+  return integerRange(spec.wordLength, spec.signed);
+}
+
+/**
+ * Rounds a real number to an integer with the given mode. `u - floor(u)` is exact in float64,
+ * so ties are detected exactly (no `floor(u + 0.5)`, which misrounds 0.49999999999999994).
+ */
+export function roundToInteger(u: number, mode: RoundingMode): number {
+  switch (mode) {
+    case "floor":
+      return Math.floor(u);
+    case "toward-zero":
+      return Math.trunc(u);
+    case "nearest-away": {
+      const f = Math.floor(u);
+      const d = u - f;
+      if (d > 0.5) return f + 1;
+      if (d < 0.5) return f;
+      return u > 0 ? f + 1 : f;
+    }
+    case "nearest-even": {
+      const f = Math.floor(u);
+      const d = u - f;
+      if (d > 0.5) return f + 1;
+      if (d < 0.5) return f;
+      return f % 2 === 0 ? f : f + 1;
+    }
+  }
+}
+
+/**
+ * Wraps an integer into [min, min + 2^W) by arithmetic modulo 2^W (two's-complement wrap-around).
+ * `%` on doubles is exact, so this is exact for every finite integer-valued input.
+ */
+export function wrapInteger(v: number, wordLength: number, signed: boolean): number {
+  const m = 2 ** wordLength;
+  let r = v % m;
+  if (r < 0) r += m;
+  if (signed && r >= m / 2) r -= m;
+  return r;
+}
+
+/**
+ * The gain the scaling mode applies before rounding (1 for an all-zero input: any gain leaves zeros
+ * unchanged, and 1 avoids dividing by zero and keeps the reported gain meaningful).
+ */
+export function scalingGain(maxAbs: number, spec: FixedPointSpec): number {
+  if (spec.scaling === "as-given" || maxAbs === 0) return 1;
+  const { max } = integerRange(spec.wordLength, spec.signed);
+  const largest = max * 2 ** -spec.fractionLength; // largest representable positive value at F
+  if (spec.scaling === "full-scale") return largest / maxAbs;
+  // normalize: the largest integer k with maxAbs·2^k ≤ largest; log2 may be off by one ulp, so correct it.
+  let k = Math.floor(Math.log2(largest / maxAbs));
+  if (!Number.isFinite(k))
+    throw new RangeError(`signal peak ${maxAbs} cannot be normalized: the gain is outside the float64 range`);
+  while (maxAbs * 2 ** (k + 1) <= largest) k++;
+  while (maxAbs * 2 ** k > largest) k--;
+  const gain = 2 ** k;
+  if (!Number.isFinite(gain) || gain === 0)
+    throw new RangeError(`signal peak ${maxAbs} cannot be normalized: the gain 2^${k} is outside the float64 range`);
+  return gain;
+}
+
+/** Largest |I| or |Q| of a signal. */
+export function peakComponent(signal: ComplexSignal): number {
+  let m = 0;
+  const { re, im } = signal;
+  for (let i = 0; i < re.length; i++) {
+    const a = Math.abs(re[i]!);
+    const b = Math.abs(im[i]!);
+    if (a > m) m = a;
+    if (b > m) m = b;
+  }
+  return m;
+}
+
+/** Optional output buffers (each the signal's length) so a bit-width sweep can reuse memory. */
+export interface QuantizeBuffers {
+  re?: Float64Array;
+  im?: Float64Array;
+  valueRe?: Float64Array;
+  valueIm?: Float64Array;
+}
+
+function buffer(name: string, given: Float64Array | undefined, n: number): Float64Array {
+  if (!given) return new Float64Array(n);
+  if (given.length !== n) throw new RangeError(`out.${name} must have ${n} elements, got ${given.length}`);
+  return given;
+}
+
+/**
+ * Quantizes one component array in place into `codes`/`values`; returns the overflow count.
+ * `scale` is gain·2^F (a power of two unless full-scale); for full-scale `peak` is divided out first
+ * so the largest component lands exactly on the largest code.
+ */
+function quantizeComponent(
+  x: Float64Array,
+  codes: Float64Array,
+  values: Float64Array,
+  spec: FixedPointSpec,
+  scale: number,
+  fullScalePeak: number,
+): number {
+  const { min, max } = integerRange(spec.wordLength, spec.signed);
+  const step = 2 ** -spec.fractionLength;
+  const { rounding, overflow, wordLength, signed } = spec;
+  let overflows = 0;
+  for (let i = 0; i < x.length; i++) {
+    const u = fullScalePeak > 0 ? (x[i]! / fullScalePeak) * max : x[i]! * scale;
+    if (!Number.isFinite(u))
+      throw new RangeError(`signal[${i}] × 2^${spec.fractionLength} is outside the float64 range`);
+    let c = roundToInteger(u, rounding);
+    if (c > max || c < min) {
+      overflows++;
+      c = overflow === "saturate" ? (c > max ? max : min) : wrapInteger(c, wordLength, signed);
+    }
+    c += 0; // −0 (trunc/floor of small negatives) becomes 0
+    codes[i] = c;
+    values[i] = c * step;
+  }
+  return overflows;
+}
+
+/**
+ * Quantizes a complex table to the fixed-point spec: codes (exact integers), the values they stand for
+ * (code·2^-F ≈ gain·input), the gain, and how many I/Q components overflowed (counted separately).
+ */
+export function quantize(signal: ComplexSignal, spec: FixedPointSpec, out?: QuantizeBuffers): QuantizedTable {
+  checkSignal("signal", signal);
+  checkFixedPointSpec(spec);
+  const n = signal.re.length;
+  const re = buffer("re", out?.re, n);
+  const im = buffer("im", out?.im, n);
+  const valueRe = buffer("valueRe", out?.valueRe, n);
+  const valueIm = buffer("valueIm", out?.valueIm, n);
+  const peak = peakComponent(signal);
+  const gain = scalingGain(peak, spec);
+  const fullScalePeak = spec.scaling === "full-scale" && peak > 0 ? peak : 0;
+  const scale = gain * 2 ** spec.fractionLength;
+  const overflowCount =
+    quantizeComponent(signal.re, re, valueRe, spec, scale, fullScalePeak) +
+    quantizeComponent(signal.im, im, valueIm, spec, scale, fullScalePeak);
+  return { re, im, valueRe, valueIm, gain, overflowCount, spec: { ...spec } };
+}
