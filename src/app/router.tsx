@@ -1,0 +1,23 @@
+import { createBrowserRouter } from "react-router-dom";
+import { ProjectPage } from "@/features/projects/components/project-page";
+import { ProjectsPage } from "@/features/projects/components/projects-page";
+import { NotFoundRoute } from "./routes/not-found";
+import { AccountRoute, AdminUsersRoute, HomeRoute } from "./routes/pages";
+import { SignInRoute } from "./routes/sign-in";
+import { Shell } from "./shell";
+
+/** Every place in the app. */
+export const router = createBrowserRouter([
+  { path: "/sign-in", element: <SignInRoute /> },
+  {
+    element: <Shell />,
+    children: [
+      { index: true, element: <HomeRoute /> },
+      { path: "projects", element: <ProjectsPage /> },
+      { path: "projects/:id", element: <ProjectPage /> },
+      { path: "account", element: <AccountRoute /> },
+      { path: "admin/users", element: <AdminUsersRoute /> },
+      { path: "*", element: <NotFoundRoute /> },
+    ],
+  },
+]);

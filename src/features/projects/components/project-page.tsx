@@ -1,0 +1,88 @@
+import { Link, useParams } from "react-router-dom";
+import { RoleBadges } from "@/components/role-badges";
+import { PageHeader, Section } from "@/components/ui/page";
+import { EmptyState, ErrorState, Skeleton, TableSkeleton } from "@/components/ui/states";
+import { Table, Td, Th, Tr } from "@/components/ui/table";
+import { ApiError } from "@/lib/api-client";
+import { formatDate } from "@/lib/format";
+import { useProject } from "../api/get-project";
+
+/** /projects/:id: header, designs (arrive with issue 4) and members. */
+export function ProjectPage() {
+  const { id } = useParams();
+  const projectId = Number(id);
+  const valid = Number.isInteger(projectId) && projectId > 0;
+  const query = useProject(valid ? projectId : -1);
+  if (!valid || (query.error instanceof ApiError && query.error.status === 404)) {
+    return (
+      <>
+        <PageHeader title="Project not found" />
+        <EmptyState title="This project does not exist or you are not a member">
+          <Link to="/projects" className="text-signal-800 underline">
+            Back to your projects
+          </Link>
+        </EmptyState>
+      </>
+    );
+  }
+  if (query.isPending) {
+    return (
+      <div role="status" aria-label="Loading project">
+        <Skeleton className="mb-2 h-6 w-72" />
+        <Skeleton className="mb-6 h-4 w-96" />
+        <TableSkeleton rows={3} />
+      </div>
+    );
+  }
+  if (query.isError) return <ErrorState error={query.error} onRetry={() => void query.refetch()} />;
+  const { project, members } = query.data;
+  return (
+    <>
+      <nav aria-label="Breadcrumb" className="mb-1 text-xs text-ink-600">
+        <Link to="/projects" className="hover:underline">
+          Projects
+        </Link>{" "}
+        / <span className="font-mono">{project.slug}</span>
+      </nav>
+      <PageHeader
+        title={project.name}
+        subtitle={
+          <>
+            {project.description || "No description"} · created <span className="font-mono">{formatDate(project.createdAt)}</span>
+          </>
+        }
+      />
+      <Section title="Designs">
+        <EmptyState title="No designs yet">
+          Waveform and filter designs for this project will be listed here once design authoring is available.
+        </EmptyState>
+      </Section>
+      <Section title={`Members (${members.length})`}>
+        {members.length === 0 ? (
+          <EmptyState title="No members">An admin can add members from the admin pages.</EmptyState>
+        ) : (
+          <Table label="Members">
+            <thead>
+              <tr>
+                <Th>Name</Th>
+                <Th>User name</Th>
+                <Th>Roles</Th>
+              </tr>
+            </thead>
+            <tbody>
+              {members.map((m) => (
+                <Tr key={m.id}>
+                  <Td className="font-medium">{m.displayName}</Td>
+                  <Td className="font-mono text-[13px] text-ink-700">{m.username}</Td>
+                  <Td>
+                    <RoleBadges roles={m.roles} />
+                  </Td>
+                </Tr>
+              ))}
+            </tbody>
+          </Table>
+        )}
+      </Section>
+    </>
+  );
+}

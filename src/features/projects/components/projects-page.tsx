@@ -1,0 +1,60 @@
+import { useSearchParams } from "react-router-dom";
+import { Input } from "@/components/ui/input";
+import { PageHeader } from "@/components/ui/page";
+import { EmptyState, ErrorState, TableSkeleton } from "@/components/ui/states";
+import { useProjects } from "../api/get-projects";
+import { ProjectsTable } from "./projects-table";
+
+/** /projects: every visible project, filtered by `?q=` so a filtered view can be linked. */
+export function ProjectsPage() {
+  const projects = useProjects();
+  const [params, setParams] = useSearchParams();
+  const q = params.get("q") ?? "";
+  const needle = q.trim().toLowerCase();
+  const rows = (projects.data ?? []).filter(
+    (p) => !needle || p.name.toLowerCase().includes(needle) || p.slug.includes(needle),
+  );
+  return (
+    <>
+      <PageHeader
+        title="Projects"
+        subtitle={projects.data ? `${projects.data.length} visible to you` : "Programmes you are a member of"}
+      />
+      <div className="mb-3 flex items-center gap-3">
+        <label htmlFor="project-search" className="sr-only">
+          Search projects
+        </label>
+        <Input
+          id="project-search"
+          type="search"
+          data-page-search
+          placeholder="Search by name or slug  ( / )"
+          className="max-w-xs"
+          value={q}
+          onChange={(e) => {
+            const next = new URLSearchParams(params);
+            if (e.target.value) next.set("q", e.target.value);
+            else next.delete("q");
+            setParams(next, { replace: true });
+          }}
+        />
+        {needle && projects.data && (
+          <span className="text-xs text-ink-600">
+            {rows.length} of {projects.data.length}
+          </span>
+        )}
+      </div>
+      {projects.isPending ? (
+        <TableSkeleton label="Loading projects" />
+      ) : projects.isError ? (
+        <ErrorState error={projects.error} onRetry={() => void projects.refetch()} />
+      ) : projects.data.length === 0 ? (
+        <EmptyState title="You are not a member of any project yet">Ask an admin to add you to a project.</EmptyState>
+      ) : rows.length === 0 ? (
+        <EmptyState title={`No project matches “${q}”`}>Clear the search to see all {projects.data.length}.</EmptyState>
+      ) : (
+        <ProjectsTable projects={rows} />
+      )}
+    </>
+  );
+}
