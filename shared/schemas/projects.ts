@@ -1,4 +1,6 @@
 import { z } from "zod";
+import { RoleSchema, SessionUserSchema } from "./auth";
+import { HealthSchema } from "./health";
 
 export const ProjectSchema = z.object({
   id: z.number().int(),
@@ -25,3 +27,35 @@ export const CreateProjectSchema = z.object({
 export type CreateProjectInput = z.infer<typeof CreateProjectSchema>;
 
 export const SetMembersSchema = z.object({ userIds: z.array(z.number().int().positive()) });
+
+/** A project member as GET /api/projects/:id lists them. */
+export const ProjectMemberSchema = z.object({
+  id: z.number().int(),
+  username: z.string(),
+  displayName: z.string(),
+  roles: z.array(RoleSchema),
+});
+export type ProjectMember = z.infer<typeof ProjectMemberSchema>;
+
+/** GET /api/projects/:id and PUT /api/projects/:id/members answer with this. */
+export const ProjectDetailSchema = z.object({
+  project: ProjectSchema,
+  members: z.array(ProjectMemberSchema),
+});
+export type ProjectDetail = z.infer<typeof ProjectDetailSchema>;
+
+/** GET /api/home: the signed-in user's start page, real data only. */
+export const HomeSchema = z.object({
+  user: SessionUserSchema,
+  projects: z.array(ProjectSchema),
+  stats: z.object({
+    projectCount: z.number().int(),
+    /** Admin only. */
+    userCount: z.number().int().optional(),
+    /** Admin only: unexpired sessions of signed-in users. */
+    activeSessions: z.number().int().optional(),
+  }),
+  /** Admin only. */
+  health: HealthSchema.optional(),
+});
+export type Home = z.infer<typeof HomeSchema>;

@@ -1,0 +1,161 @@
+import compression from "compression";
+import connectPgSimple from "connect-pg-simple";
+import express, { type Express } from "express";
+import session from "express-session";
+import helmet from "helmet";
+import { existsSync } from "node:fs";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import { pinoHttp } from "pino-http";
+import pino, { type Logger } from "pino";
+import { createPassport } from "./auth/passport";
+import type { Database } from "./db/client";
+import { apiNotFound, errorHandler } from "./http/errors";
+import { accountRoutes } from "./routes/account";
+import { adminUserRoutes } from "./routes/admin-users";
+import { authRoutes } from "./routes/auth";
+import type { RouteContext } from "./routes/context";
+import { healthRoutes } from "./routes/health";
+import { homeRoutes } from "./routes/home";
+import { projectRoutes } from "./routes/projects";
+
+/** The session cookie's name (shared with the client's tests). */
+export const SESSION_COOKIE = "tapwright.sid";
+
+// Used only outside production when no secret is configured; npm start always writes a real one.
+const DEVELOPMENT_SECRET = "tapwright-development-only-session-secret";
+
+/** Everything the app needs from outside; tests build two apps over one database. */
+export interface AppDeps {
+  database: Database;
+  sessionSecret?: string;
+  production?: boolean;
+  version: string;
+  /** Built client folder served with SPA fallback when it exists; relative paths are from the project root. */
+  clientDist?: string;
+  logger?: Logger;
+  /** Express "trust proxy" setting, for deployments behind a TLS-terminating proxy. */
+  trustProxy?: boolean | number | string;
+  signInLimitPerMinute?: number;
+  /** Minutes between deletions of expired session rows; false turns pruning off (tests). */
+  pruneSessionsMinutes?: number | false;
+}
+
+/** An app plus what must be closed with it. */
+export interface CreatedApp {
+  app: Express;
+  /** Stop background timers owned by the app (the session pruner). Does not close the pool. */
+  close(): void;
+}
+
+const PROJECT_ROOT = fileURLToPath(new URL("..", import.meta.url));
+
+/** Build the Express app: middleware in the order of STYLE.md #9, API routes, static client. */
+export function createApp(deps: AppDeps): CreatedApp {
+  const { database } = deps;
+  const production = deps.production ?? false;
+  const secret = deps.sessionSecret ?? (production ? undefined : DEVELOPMENT_SECRET);
+  if (!secret) throw new Error("A session secret is required in production");
+  const logger = deps.logger ?? pino({ level: "silent" });
+
+  const app = express();
+  app.disable("x-powered-by");
+  if (deps.trustProxy !== undefined) app.set("trust proxy", deps.trustProxy);
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          baseUri: ["'self'"],
+          connectSrc: ["'self'"],
+          fontSrc: ["'self'", "data:"],
+          formAction: ["'self'"],
+          frameAncestors: ["'none'"],
+          imgSrc: ["'self'", "data:", "blob:"],
+          objectSrc: ["'none'"],
+          scriptSrc: ["'self'"],
+          scriptSrcAttr: ["'none'"],
+          // The code editor (Monaco) injects <style> elements at run time.
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          // Vite-built workers load from 'self'; blob: covers workers created from generated code.
+          workerSrc: ["'self'", "blob:"],
+        },
+      },
+    }),
+  );
+  app.use(compression());
+  app.use(
+    pinoHttp({
+      logger,
+      autoLogging: { ignore: (req) => req.url === "/api/health" },
+      customLogLevel: (_req, res, err) =>
+        err || res.statusCode >= 500 ? "error" : res.statusCode >= 400 ? "warn" : "info",
+    }),
+  );
+  app.use(express.json({ limit: "2mb" }));
+
+  const PgStore = connectPgSimple(session);
+  const store = new PgStore({
+    pool: database.pool,
+    tableName: "session",
+    pruneSessionInterval:
+      deps.pruneSessionsMinutes === false ? false : (deps.pruneSessionsMinutes ?? 15) * 60,
+    errorLog: (...args: unknown[]) => logger.error({ args }, "session store error"),
+  });
+  app.use(
+    session({
+      name: SESSION_COOKIE,
+      secret,
+      store,
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      cookie: {
+        httpOnly: true,
+        sameSite: "lax",
+        secure: production ? "auto" : false,
+        maxAge: 8 * 60 * 60 * 1000, // a working day; rolling renews it on each request
+        path: "/",
+      },
+    }),
+  );
+  const passport = createPassport(database.db);
+  app.use(passport.initialize());
+  app.use(passport.session());
+
+  const ctx: RouteContext = {
+    db: database.db,
+    passport,
+    version: deps.version,
+    signInLimitPerMinute: deps.signInLimitPerMinute ?? 10,
+  };
+  const api = express.Router();
+  api.use("/health", healthRoutes(ctx));
+  api.use("/auth", authRoutes(ctx));
+  api.use("/account", accountRoutes(ctx));
+  api.use("/projects", projectRoutes(ctx));
+  api.use("/admin/users", adminUserRoutes(ctx));
+  api.use("/home", homeRoutes(ctx));
+  api.use(apiNotFound);
+  app.use("/api", api);
+
+  const dist = deps.clientDist ? path.resolve(PROJECT_ROOT, deps.clientDist) : undefined;
+  const indexHtml = dist ? path.join(dist, "index.html") : undefined;
+  if (dist && indexHtml && existsSync(indexHtml)) {
+    // Vite puts content-hashed files under assets/: cache them for a year; index.html never.
+    app.use(
+      "/assets",
+      express.static(path.join(dist, "assets"), { immutable: true, maxAge: "1y", fallthrough: false }),
+    );
+    app.use(express.static(dist, { index: false, maxAge: 0 }));
+    app.get("/{*splat}", (_req, res) => {
+      res.setHeader("Cache-Control", "no-cache");
+      res.sendFile(indexHtml);
+    });
+  }
+
+  app.use(errorHandler);
+  return { app, close: () => store.close() };
+}

@@ -1,0 +1,4 @@
+// The Drizzle schema, one file per area under schema/; later issues add designs, revisions, reports,
+// reviews, releases and audit events as new files re-exported here (drizzle.config.ts reads this file).
+export * from "./schema/users";
+export * from "./schema/projects";

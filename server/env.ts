@@ -1,0 +1,50 @@
+import { readFileSync } from "node:fs";
+import { z } from "zod";
+
+/** Version from package.json, read once so /api/health can report what is running. */
+function packageVersion(): string {
+  try {
+    const pkg = JSON.parse(readFileSync(new URL("../package.json", import.meta.url), "utf8")) as {
+      version?: string;
+    };
+    return pkg.version ?? "0.0.0";
+  } catch {
+    return "0.0.0";
+  }
+}
+
+const EnvSchema = z
+  .object({
+    NODE_ENV: z.enum(["development", "test", "production"]).default("development"),
+    DATABASE_URL: z.string().min(1, "DATABASE_URL is required (npm start sets it from scripts/pg.sh)"),
+    PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+    HOST: z.string().default("127.0.0.1"),
+    SESSION_SECRET: z.string().min(16, "at least 16 characters").optional(),
+    LOG_LEVEL: z.enum(["fatal", "error", "warn", "info", "debug", "trace", "silent"]).default("info"),
+    CLIENT_DIST: z.string().default("dist/client"),
+    TAPWRIGHT_VERSION: z.string().default(packageVersion()),
+  })
+  .refine((e) => e.NODE_ENV !== "production" || e.SESSION_SECRET !== undefined, {
+    path: ["SESSION_SECRET"],
+    message: "SESSION_SECRET is required in production",
+  });
+
+/** The validated server environment. */
+export type Env = z.infer<typeof EnvSchema>;
+
+/** Parse an environment object; throws with every problem listed. */
+export function parseEnv(source: NodeJS.ProcessEnv): Env {
+  const result = EnvSchema.safeParse(source);
+  if (!result.success) {
+    const lines = result.error.issues.map((i) => `  ${i.path.join(".")}: ${i.message}`).join("\n");
+    throw new Error(`Invalid server environment:\n${lines}`);
+  }
+  return result.data;
+}
+
+let cached: Env | undefined;
+/** The process environment, validated on first use; the only reader of process.env in the server. */
+export function env(): Env {
+  cached ??= parseEnv(process.env);
+  return cached;
+}

@@ -1,0 +1,50 @@
+import type { Server } from "node:http";
+import pino from "pino";
+import { createApp } from "./app";
+import { openDatabase, runMigrations } from "./db/client";
+import { env } from "./env";
+
+// Start-up: read the environment, migrate, listen; stop cleanly on SIGINT/SIGTERM.
+const config = env();
+const logger = pino({
+  level: config.NODE_ENV === "test" ? "warn" : config.LOG_LEVEL,
+  // Session cookies and passwords never reach the log.
+  redact: ["req.headers.cookie", 'res.headers["set-cookie"]', "req.body.password"],
+});
+const database = openDatabase(config.DATABASE_URL);
+
+await runMigrations(database.db);
+const { app, close } = createApp({
+  database,
+  sessionSecret: config.SESSION_SECRET,
+  production: config.NODE_ENV === "production",
+  version: config.TAPWRIGHT_VERSION,
+  clientDist: config.CLIENT_DIST,
+  logger,
+});
+
+const server: Server = app.listen(config.PORT, config.HOST, () => {
+  const address = server.address();
+  const port = typeof address === "object" && address ? address.port : config.PORT;
+  logger.info(`Tapwright API listening on http://${config.HOST}:${port}`);
+});
+
+let stopping = false;
+function shutdown(signal: string): void {
+  if (stopping) return;
+  stopping = true;
+  logger.info(`${signal}: shutting down`);
+  // Give open requests a moment, then drop idle keep-alive sockets so close() can finish.
+  const force = setTimeout(() => server.closeAllConnections(), 5000);
+  force.unref();
+  server.close(() => {
+    close();
+    database.pool.end().then(
+      () => process.exit(0),
+      () => process.exit(1),
+    );
+  });
+  server.closeIdleConnections();
+}
+process.on("SIGINT", () => shutdown("SIGINT"));
+process.on("SIGTERM", () => shutdown("SIGTERM"));

@@ -1,0 +1,18 @@
+import { Router } from "express";
+import { ChangePasswordSchema } from "../../../shared/schemas/auth";
+import { currentUser } from "../../auth/guards";
+import { parseInput } from "../../http/errors";
+import { changePassword } from "../../services/users";
+import type { RouteContext } from "../context";
+
+/** The signed-in user's own account. */
+export function accountRoutes(ctx: RouteContext): Router {
+  const r = Router();
+  r.post("/password", async (req, res) => {
+    const user = currentUser(req);
+    const input = parseInput(ChangePasswordSchema, req.body);
+    await changePassword(ctx.db, user.id, input.currentPassword, input.newPassword);
+    res.status(204).end();
+  });
+  return r;
+}

@@ -1,0 +1,86 @@
+import type { NextFunction, Request, Response } from "express";
+import { Router } from "express";
+import { ipKeyGenerator, rateLimit } from "express-rate-limit";
+import { SignInSchema, type SessionUser } from "../../../shared/schemas/auth";
+import type { SignInFailure } from "../../auth/passport";
+import { currentUser } from "../../auth/guards";
+import { HttpError, parseInput } from "../../http/errors";
+import { touchSignIn } from "../../services/users";
+import type { RouteContext } from "../context";
+
+const BAD_CREDENTIALS = "User name or password is incorrect";
+
+/** Run passport's local strategy and resolve with the user, or throw the matching HttpError. */
+function authenticate(
+  ctx: RouteContext,
+  req: Request,
+  res: Response,
+  next: NextFunction,
+): Promise<SessionUser> {
+  return new Promise((resolve, reject) => {
+    const run = ctx.passport.authenticate(
+      "local",
+      { session: false },
+      (err: unknown, user: SessionUser | false, info: SignInFailure | undefined) => {
+        if (err) return reject(err);
+        if (user) return resolve(user);
+        if (info?.reason === "deactivated")
+          return reject(new HttpError("forbidden", "This account is deactivated"));
+        reject(new HttpError("unauthenticated", BAD_CREDENTIALS));
+      },
+    ) as (req: Request, res: Response, next: NextFunction) => void;
+    run(req, res, next);
+  });
+}
+
+function logIn(req: Request, user: SessionUser): Promise<void> {
+  return new Promise((resolve, reject) => req.logIn(user, (err) => (err ? reject(err) : resolve())));
+}
+
+function logOut(req: Request): Promise<void> {
+  return new Promise((resolve, reject) => req.logout((err) => (err ? reject(err) : resolve())));
+}
+
+function destroySession(req: Request): Promise<void> {
+  return new Promise((resolve, reject) => req.session.destroy((err) => (err ? reject(err) : resolve())));
+}
+
+/** Session routes: sign in, sign out, who am I. */
+export function authRoutes(ctx: RouteContext): Router {
+  const r = Router();
+  const limiter = rateLimit({
+    windowMs: 60_000,
+    limit: ctx.signInLimitPerMinute,
+    standardHeaders: "draft-8",
+    legacyHeaders: false,
+    // Per address and user name: one person's typos do not lock out a shared office address.
+    keyGenerator: (req) => {
+      const body = req.body as { username?: unknown } | undefined;
+      const name = typeof body?.username === "string" ? body.username.trim().toLowerCase() : "";
+      return `${ipKeyGenerator(req.ip ?? "")}|${name}`;
+    },
+    handler: (_req, _res, next) =>
+      next(new HttpError("rate_limited", "Too many sign-in attempts; wait a minute and try again")),
+  });
+
+  r.post("/sign-in", limiter, async (req, res, next) => {
+    const input = parseInput(SignInSchema, req.body);
+    req.body = input;
+    const user = await authenticate(ctx, req, res, next);
+    await logIn(req, user);
+    await touchSignIn(ctx.db, user.id);
+    res.status(200).json({ user });
+  });
+
+  r.post("/sign-out", async (req, res) => {
+    if (req.user) await logOut(req);
+    if (req.session) await destroySession(req);
+    res.clearCookie("tapwright.sid", { path: "/" });
+    res.status(204).end();
+  });
+
+  r.get("/me", (req, res) => {
+    res.json({ user: currentUser(req) });
+  });
+  return r;
+}
