@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { fftInterleaved, nextPow2, toInterleaved } from "@shared/dsp/fft";
 import { linearFm } from "@shared/dsp/lfm";
 import { matchedFilter } from "@shared/dsp/matched-filter";
+import { BARKER_CODES, phaseCode, phaseCodePhases, type PhaseCodeSpec } from "@shared/dsp/phase-codes";
 import type { ComplexSignal } from "@shared/dsp/types";
 
 const db20 = (x: number) => 20 * Math.log10(x);
@@ -196,5 +197,155 @@ describe("linear FM bad input names the parameter", () => {
     );
     expect(() => linearFm({ ...ok, direction: "sideways" as "up" })).toThrow(TypeError);
     expect(() => linearFm({ ...ok, bandwidthHz: "1e6" as unknown as number })).toThrow(TypeError);
+  });
+});
+
+/** Aperiodic (or periodic) autocorrelation magnitude |r(l)|, l = 0..N−1, by its definition (independent of the FFT). */
+function directAcf(s: ComplexSignal, periodic = false): Float64Array {
+  const n = s.re.length;
+  const out = new Float64Array(n);
+  for (let l = 0; l < n; l++) {
+    let re = 0;
+    let im = 0;
+    for (let k = 0; k < n; k++) {
+      if (!periodic && k + l >= n) break;
+      const j = (k + l) % n;
+      re += s.re[j]! * s.re[k]! + s.im[j]! * s.im[k]!;
+      im += s.im[j]! * s.re[k]! - s.re[j]! * s.im[k]!;
+    }
+    out[l] = Math.hypot(re, im);
+  }
+  return out;
+}
+const maxSide = (r: Float64Array) => Math.max(...r.subarray(1));
+
+describe("Barker codes (Richards 2014, Table 4.1 and p. 305)", () => {
+  // PSL = 20·log10(1/N): −6.02, −9.54, −12.04, −13.98, −16.90, −20.83, −22.28 dB.
+  const table = [
+    [2, -6.02],
+    [3, -9.54],
+    [4, -12.04],
+    [5, -13.98],
+    [7, -16.9],
+    [11, -20.83],
+    [13, -22.28],
+  ] as const;
+  for (const [n, psl] of table) {
+    it(`length ${n}: peak ${n}, sidelobes of magnitude ≤ 1, PSL ${psl} dB`, () => {
+      const s = phaseCode({ kind: "barker", length: n });
+      expect(s.re.length).toBe(n);
+      const r = directAcf(s);
+      expect(r[0]).toBe(n);
+      for (let l = 1; l < n; l++) expect(r[l]!).toBeLessThanOrEqual(1 + 1e-12);
+      expect(db20(maxSide(r) / r[0]!)).toBeCloseTo(psl, 2);
+    });
+  }
+
+  it("Barker-13 is +++++−−++−+−+ with ISL over all nonzero lags 10·log10(12/169) = −11.49 dB (derived)", () => {
+    expect(BARKER_CODES[13].map((c) => (c > 0 ? "+" : "−")).join("")).toBe("+++++−−++−+−+");
+    const r = directAcf(phaseCode({ kind: "barker", length: 13 }));
+    let side = 0;
+    for (let l = 1; l < 13; l++) side += 2 * r[l]! ** 2; // both sides of the (symmetric) autocorrelation
+    expect(10 * Math.log10(side / r[0]! ** 2)).toBeCloseTo(-11.49, 2);
+    expect(Array.from(phaseCode({ kind: "barker", length: 13 }).im).every((v) => v === 0)).toBe(true);
+  });
+
+  it("samples per chip repeat each chip; the chip-lag autocorrelation scales by the repeat", () => {
+    const spc = 3;
+    const s = phaseCode({ kind: "barker", length: 13 }, { samplesPerChip: spc });
+    expect(s.re.length).toBe(39);
+    expect(Array.from(s.re.subarray(15, 21))).toEqual([-1, -1, -1, -1, -1, -1]);
+    const r = directAcf(s);
+    const chip = directAcf(phaseCode({ kind: "barker", length: 13 }));
+    for (let l = 0; l < 13; l++) expect(r[l * spc]).toBeCloseTo(chip[l]! * spc, 12);
+    // Mainlobe to the first local minimum (lag spc here), as DESIGN.md defines it.
+    let l = 0;
+    while (r[l + 1]! < r[l]!) l++;
+    expect(l).toBe(spc);
+    expect(db20(Math.max(...r.subarray(l)) / r[0]!)).toBeCloseTo(-22.28, 2);
+  });
+});
+
+describe("polyphase codes", () => {
+  it("Frank N = 16 has PSL −21.1 dB (Richards 2014 p. 311)", () => {
+    const r = directAcf(phaseCode({ kind: "frank", order: 4 }));
+    expect(r.length).toBe(16);
+    expect(db20(maxSide(r) / r[0]!)).toBeCloseTo(-21.07, 2);
+  });
+
+  it("Frank, P1 and P2 meet PSL = 20·log10(1/(N·sin(π/M))) for even M (REFERENCES.md, derived)", () => {
+    // Measured: M = 6 → −25.10 dB, M = 8 → −27.78 dB, M = 10 → −29.80 dB for all three.
+    for (const kind of ["frank", "p1", "p2"] as const) {
+      for (const m of [4, 6, 8, 10]) {
+        const r = directAcf(phaseCode({ kind, order: m }));
+        const want = db20(1 / (m * m * Math.sin(Math.PI / m)));
+        expect(Math.abs(db20(maxSide(r) / r[0]!) - want)).toBeLessThan(0.01);
+      }
+    }
+  });
+
+  it("Frank, P1, P4 (any N) and P3 (even N) have zero periodic sidelobes (Frank 1963; Chu, IEEE Trans. IT-18, 1972)", () => {
+    const specs: PhaseCodeSpec[] = [
+      { kind: "frank", order: 5 },
+      { kind: "frank", order: 8 },
+      { kind: "p1", order: 5 },
+      { kind: "p1", order: 8 },
+      { kind: "p3", length: 36 },
+      { kind: "p3", length: 64 },
+      { kind: "p4", length: 25 },
+      { kind: "p4", length: 64 },
+    ];
+    for (const spec of specs) {
+      const r = directAcf(phaseCode(spec), true);
+      expect(maxSide(r) / r[0]!).toBeLessThan(1e-12);
+    }
+  });
+
+  it("P2 is palindromic and each group is a constant frequency centred on 0 (Lewis & Kretschmer 1981, derived)", () => {
+    const m = 6;
+    const phi = phaseCodePhases({ kind: "p2", order: m });
+    for (let i = 0; i < m * m; i++) expect(phi[i]).toBeCloseTo(phi[m * m - 1 - i]!, 12);
+    const steps: number[] = [];
+    for (let g = 0; g < m; g++) {
+      const step = phi[g * m + 1]! - phi[g * m]!;
+      for (let k = 1; k < m; k++) expect(phi[g * m + k]! - phi[g * m + k - 1]!).toBeCloseTo(step, 12);
+      steps.push(step);
+    }
+    expect(steps.reduce((a, b) => a + b, 0)).toBeCloseTo(0, 12);
+  });
+
+  it("P4 is a sampled chirp with B = fs (Lewis & Kretschmer 1982), offset by half a frequency bin", () => {
+    // Derived: π(i − (N−1)/2)²/N = πi²/N − πi + πi/N + const, so P4·conj(LFM) advances by −π/N per chip.
+    const n = 64;
+    const p4 = phaseCode({ kind: "p4", length: n });
+    const lfm = linearFm({ bandwidthHz: 1, pulseWidthS: n, sampleRateHz: 1 });
+    const prodPhase = (i: number) =>
+      Math.atan2(p4.im[i]! * lfm.re[i]! - p4.re[i]! * lfm.im[i]!, p4.re[i]! * lfm.re[i]! + p4.im[i]! * lfm.im[i]!);
+    for (let i = 1; i < n; i++) {
+      const d = prodPhase(i) - prodPhase(i - 1);
+      const wrapped = Math.atan2(Math.sin(d), Math.cos(d));
+      expect(wrapped).toBeCloseTo(-Math.PI / n, 10);
+    }
+  });
+
+  it("P3 and P4 share their aperiodic autocorrelation magnitude (P4 = P3·(−1)^i, derived)", () => {
+    for (const n of [25, 64]) {
+      const a = directAcf(phaseCode({ kind: "p3", length: n }));
+      const b = directAcf(phaseCode({ kind: "p4", length: n }));
+      for (let l = 0; l < n; l++) expect(a[l]).toBeCloseTo(b[l]!, 9);
+    }
+  });
+
+  it("bad input names the parameter", () => {
+    expect(() => phaseCode({ kind: "barker", length: 6 as 7 })).toThrow(/code\.length/);
+    expect(() => phaseCode({ kind: "barker", length: 6 as 7 })).toThrow(RangeError);
+    expect(() => phaseCode({ kind: "frank", order: 1 })).toThrow(/code\.order/);
+    expect(() => phaseCode({ kind: "frank", order: 2.5 })).toThrow(/code\.order/);
+    expect(() => phaseCode({ kind: "p2", order: 5 })).toThrow(/even/);
+    expect(() => phaseCode({ kind: "p3", length: Number.NaN })).toThrow(/code\.length/);
+    expect(() => phaseCode({ kind: "p4", length: 0 })).toThrow(/code\.length/);
+    expect(() => phaseCode({ kind: "barker", length: 13 }, { samplesPerChip: 0 })).toThrow(/samplesPerChip/);
+    expect(() => phaseCode({ kind: "barker", length: 13 }, { samplesPerChip: Infinity })).toThrow(/samplesPerChip/);
+    expect(() => phaseCode({ kind: "golay" } as unknown as PhaseCodeSpec)).toThrow(TypeError);
   });
 });
