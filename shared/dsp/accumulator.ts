@@ -12,7 +12,9 @@ export function checkSignedCodes(name: string, values: ArrayLike<number>, bits: 
   for (let i = 0; i < values.length; i++) {
     const v = values[i]!;
     if (!Number.isInteger(v) || v < lo || v > hi)
-      throw new RangeError(`${name}[${i}] must be an integer code in ${lo}..${hi} (${bits}-bit signed), got ${v}`);
+      throw new RangeError(
+        `${name}[${i}] must be an integer code in ${lo}..${hi} (${bits}-bit signed), got ${v}`,
+      );
   }
 }
 
@@ -26,7 +28,8 @@ export function absoluteCodeSum(codes: { re: ArrayLike<number>; im: ArrayLike<nu
   for (let i = 0; i < codes.re.length; i++) s += Math.abs(codes.re[i]!) + Math.abs(codes.im[i]!);
   if (s < 2 ** 53) return BigInt(s); // every partial sum was an integer below 2^53, hence exact
   let b = 0n;
-  for (let i = 0; i < codes.re.length; i++) b += BigInt(Math.abs(codes.re[i]!)) + BigInt(Math.abs(codes.im[i]!));
+  for (let i = 0; i < codes.re.length; i++)
+    b += BigInt(Math.abs(codes.re[i]!)) + BigInt(Math.abs(codes.im[i]!));
   return b;
 }
 

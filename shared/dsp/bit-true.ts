@@ -156,7 +156,8 @@ function convolveBigInt(x: IntegerSignal, h: IntegerSignal, ny: number): { re: b
 /** Runs the bit-true complex FIR; outputs are exact integer codes of `outputBits`-bit signed words. */
 export function bitTrueFilter(opts: BitTrueOptions): BitTrueResult {
   if (opts == null || typeof opts !== "object") throw new TypeError("options must be an object");
-  const { input, coefficients, outputShift, rounding, overflow, outputBits, inputBits, coefficientBits } = opts;
+  const { input, coefficients, outputShift, rounding, overflow, outputBits, inputBits, coefficientBits } =
+    opts;
   checkInteger("inputBits", inputBits, 2, 32);
   checkInteger("coefficientBits", coefficientBits, 2, 32);
   checkInteger("outputBits", outputBits, 2, 53);
@@ -168,7 +169,8 @@ export function bitTrueFilter(opts: BitTrueOptions): BitTrueResult {
   checkSignedCodes("input.re", input.re, inputBits);
   checkSignedCodes("input.im", input.im, inputBits);
   const ny = input.re.length + coefficients.re.length - 1;
-  if (ny > MAX_SAMPLES) throw new RangeError(`output would have ${ny} samples; at most ${MAX_SAMPLES} are allowed`);
+  if (ny > MAX_SAMPLES)
+    throw new RangeError(`output would have ${ny} samples; at most ${MAX_SAMPLES} are allowed`);
   // Also checks the coefficient codes against coefficientBits.
   const { worstCaseBits } = accumulatorGrowth(inputBits, coefficientBits, coefficients);
 

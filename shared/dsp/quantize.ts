@@ -34,17 +34,26 @@ export function checkOverflowMode(name: string, mode: unknown): asserts mode is 
 export function checkFixedPointSpec(spec: FixedPointSpec): void {
   if (spec == null || typeof spec !== "object") throw new TypeError("spec must be a fixed-point spec object");
   checkInteger("spec.wordLength", spec.wordLength, WORD_LENGTH_RANGE.min, WORD_LENGTH_RANGE.max);
-  checkInteger("spec.fractionLength", spec.fractionLength, FRACTION_LENGTH_RANGE.min, FRACTION_LENGTH_RANGE.max);
+  checkInteger(
+    "spec.fractionLength",
+    spec.fractionLength,
+    FRACTION_LENGTH_RANGE.min,
+    FRACTION_LENGTH_RANGE.max,
+  );
   if (typeof spec.signed !== "boolean") throw new TypeError("spec.signed must be a boolean");
   if (!SCALING_MODES.includes(spec.scaling))
-    throw new RangeError(`spec.scaling must be one of ${SCALING_MODES.join(", ")}, got "${String(spec.scaling)}"`);
+    throw new RangeError(
+      `spec.scaling must be one of ${SCALING_MODES.join(", ")}, got "${String(spec.scaling)}"`,
+    );
   checkRoundingMode("spec.rounding", spec.rounding);
   checkOverflowMode("spec.overflow", spec.overflow);
 }
 
 /** Smallest and largest integer code of a W-bit word: signed [−2^(W−1), 2^(W−1)−1], unsigned [0, 2^W−1]. */
 export function integerRange(wordLength: number, signed: boolean): { min: number; max: number } {
-  return signed ? { min: -(2 ** (wordLength - 1)), max: 2 ** (wordLength - 1) - 1 } : { min: 0, max: 2 ** wordLength - 1 };
+  return signed
+    ? { min: -(2 ** (wordLength - 1)), max: 2 ** (wordLength - 1) - 1 }
+    : { min: 0, max: 2 ** wordLength - 1 };
 }
 
 /** Code range of a spec (checked). */
@@ -109,7 +118,9 @@ export function scalingGain(maxAbs: number, spec: FixedPointSpec): number {
   while (maxAbs * 2 ** k > largest) k--;
   const gain = 2 ** k;
   if (!Number.isFinite(gain) || gain === 0)
-    throw new RangeError(`signal peak ${maxAbs} cannot be normalized: the gain 2^${k} is outside the float64 range`);
+    throw new RangeError(
+      `signal peak ${maxAbs} cannot be normalized: the gain 2^${k} is outside the float64 range`,
+    );
   return gain;
 }
 

@@ -100,7 +100,14 @@ export function makeStimulus(opts: StimulusOptions): {
   }
   const q = quantize(
     { re, im },
-    { wordLength: inputBits, fractionLength: 0, signed: true, scaling: "as-given", rounding: "nearest-even", overflow: "saturate" },
+    {
+      wordLength: inputBits,
+      fractionLength: 0,
+      signed: true,
+      scaling: "as-given",
+      rounding: "nearest-even",
+      overflow: "saturate",
+    },
     { re, im, valueRe: new Float64Array(length), valueIm: new Float64Array(length) },
   );
   const scenario: StimulusScenario = {
@@ -114,7 +121,8 @@ export function makeStimulus(opts: StimulusOptions): {
     fullScaleCode: fullScale,
     seed,
     random: {
-      uniform: "xoshiro128** 1.1 (Blackman & Vigna), state = two SplitMix64 outputs from the seed (low word first); uniform = ((a>>>5)·2^26 + (b>>>6))/2^53",
+      uniform:
+        "xoshiro128** 1.1 (Blackman & Vigna), state = two SplitMix64 outputs from the seed (low word first); uniform = ((a>>>5)·2^26 + (b>>>6))/2^53",
       gaussian: "Box–Muller, Marsaglia polar form, pairs used first-then-second; logarithm from + − × ÷ only",
       drawOrder: "for n = 0..length−1: gI[n] then gQ[n]",
     },

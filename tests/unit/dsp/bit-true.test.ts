@@ -51,7 +51,12 @@ function refFilter(
     for (let k = 0; k < h.re.length; k++) {
       const j = n - k;
       if (j < 0 || j >= x.re.length) continue;
-      const [a, b, c, d] = [h.re[k]!, h.im[k]!, x.re[j]!, x.im[j]!].map(BigInt) as [bigint, bigint, bigint, bigint];
+      const [a, b, c, d] = [h.re[k]!, h.im[k]!, x.re[j]!, x.im[j]!].map(BigInt) as [
+        bigint,
+        bigint,
+        bigint,
+        bigint,
+      ];
       ar += a * c - b * d;
       ai += a * d + b * c;
     }
@@ -62,25 +67,36 @@ function refFilter(
 }
 
 const codes = (bits: number, len: { min: number; max: number }) =>
-  fc.array(fc.integer({ min: -(2 ** (bits - 1)), max: 2 ** (bits - 1) - 1 }), { minLength: len.min, maxLength: len.max });
+  fc.array(fc.integer({ min: -(2 ** (bits - 1)), max: 2 ** (bits - 1) - 1 }), {
+    minLength: len.min,
+    maxLength: len.max,
+  });
 
 function complexCodes(bits: number, len: { min: number; max: number }) {
-  return fc.integer({ min: len.min, max: len.max }).chain((n) =>
-    fc.record({ re: codes(bits, { min: n, max: n }), im: codes(bits, { min: n, max: n }) }),
-  );
+  return fc
+    .integer({ min: len.min, max: len.max })
+    .chain((n) => fc.record({ re: codes(bits, { min: n, max: n }), im: codes(bits, { min: n, max: n }) }));
 }
 
 describe("bitTrueFilter", () => {
-  it("equals an independent BigInt convolution on the float64 path (all roundings, both overflows)", () => {
+  // One property for both paths: random codes of the given widths, every shift, rounding and overflow.
+  function agreesWithReference(
+    widths: { x: number; h: number; nx: number; nh: number; maxShift: number; maxBits: number },
+    path: "float64" | "bigint",
+    runs: number,
+    seed: number,
+  ) {
     fc.assert(
       fc.property(
-        complexCodes(12, { min: 1, max: 40 }),
-        complexCodes(14, { min: 1, max: 24 }),
-        fc.integer({ min: 0, max: 30 }),
+        complexCodes(widths.x, { min: 1, max: widths.nx }),
+        complexCodes(widths.h, { min: 1, max: widths.nh }),
+        fc.integer({ min: 0, max: widths.maxShift }),
         fc.constantFrom(...MODES),
         fc.constantFrom<OverflowMode>("saturate", "wrap"),
-        fc.integer({ min: 2, max: 30 }),
+        fc.integer({ min: 2, max: widths.maxBits }),
         (x, h, shift, mode, overflow, bits) => {
+          // For the BigInt path one full-scale input and coefficient make M·S ≥ 2^62 > 2^53.
+          if (path === "bigint") [x.re[0], h.re[0]] = [-(2 ** (widths.x - 1)), -(2 ** (widths.h - 1))];
           const got = bitTrueFilter({
             input: x,
             coefficients: h,
@@ -88,52 +104,31 @@ describe("bitTrueFilter", () => {
             rounding: mode,
             overflow,
             outputBits: bits,
-            inputBits: 12,
-            coefficientBits: 14,
+            inputBits: widths.x,
+            coefficientBits: widths.h,
           });
           const want = refFilter(x, h, shift, mode, overflow, bits);
-          expect(got.exactPath).toBe("float64");
+          expect(got.exactPath).toBe(path);
           expect(Array.from(got.re)).toEqual(want.re);
           expect(Array.from(got.im)).toEqual(want.im);
           expect(got.overflowCount).toBe(want.overflows);
         },
       ),
-      { numRuns: 300, seed: 20240601 },
+      { numRuns: runs, seed },
+    );
+  }
+
+  it("equals an independent BigInt convolution on the float64 path (all roundings, both overflows)", () => {
+    agreesWithReference(
+      { x: 12, h: 14, nx: 40, nh: 24, maxShift: 30, maxBits: 30 },
+      "float64",
+      300,
+      20240601,
     );
   });
 
   it("equals an independent BigInt convolution on the BigInt path (32-bit words)", () => {
-    fc.assert(
-      fc.property(
-        complexCodes(32, { min: 1, max: 12 }),
-        complexCodes(32, { min: 1, max: 8 }),
-        fc.integer({ min: 0, max: 70 }),
-        fc.constantFrom(...MODES),
-        fc.constantFrom<OverflowMode>("saturate", "wrap"),
-        fc.integer({ min: 2, max: 53 }),
-        (x, h, shift, mode, overflow, bits) => {
-          // Force the large path: one full-scale input and coefficient make M·S ≥ 2^62 > 2^53.
-          x.re[0] = -(2 ** 31);
-          h.re[0] = -(2 ** 31);
-          const got = bitTrueFilter({
-            input: x,
-            coefficients: h,
-            outputShift: shift,
-            rounding: mode,
-            overflow,
-            outputBits: bits,
-            inputBits: 32,
-            coefficientBits: 32,
-          });
-          const want = refFilter(x, h, shift, mode, overflow, bits);
-          expect(got.exactPath).toBe("bigint");
-          expect(Array.from(got.re)).toEqual(want.re);
-          expect(Array.from(got.im)).toEqual(want.im);
-          expect(got.overflowCount).toBe(want.overflows);
-        },
-      ),
-      { numRuns: 200, seed: 7 },
-    );
+    agreesWithReference({ x: 32, h: 32, nx: 12, nh: 8, maxShift: 70, maxBits: 53 }, "bigint", 200, 7);
   });
 
   it("rounds hand-picked ties of the shift as each mode defines (IEEE 754-2019 §4.3 names)", () => {
@@ -198,8 +193,14 @@ describe("bitTrueFilter", () => {
       s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
       return Math.floor((s / 2 ** 32) * 2 ** bits) - 2 ** (bits - 1);
     };
-    const x = { re: Float64Array.from({ length: 16384 }, () => rnd(12)), im: Float64Array.from({ length: 16384 }, () => rnd(12)) };
-    const h = { re: Float64Array.from({ length: 4096 }, () => rnd(16)), im: Float64Array.from({ length: 4096 }, () => rnd(16)) };
+    const x = {
+      re: Float64Array.from({ length: 16384 }, () => rnd(12)),
+      im: Float64Array.from({ length: 16384 }, () => rnd(12)),
+    };
+    const h = {
+      re: Float64Array.from({ length: 4096 }, () => rnd(16)),
+      im: Float64Array.from({ length: 4096 }, () => rnd(16)),
+    };
     const opts = {
       input: x,
       coefficients: h,
@@ -257,7 +258,9 @@ describe("bitTrueFilter", () => {
     expect(() => bitTrueFilter({ ...ok, input: { re: [NaN, 1], im: [0, 0] } })).toThrow(/input\.re\[0\]/);
     expect(() => bitTrueFilter({ ...ok, input: { re: [128, 1], im: [0, 0] } })).toThrow(/input\.re\[0\]/);
     expect(() => bitTrueFilter({ ...ok, input: { re: [1.5, 1], im: [0, 0] } })).toThrow(RangeError);
-    expect(() => bitTrueFilter({ ...ok, coefficients: { re: [1], im: [Infinity] } })).toThrow(/coefficients\.im/);
+    expect(() => bitTrueFilter({ ...ok, coefficients: { re: [1], im: [Infinity] } })).toThrow(
+      /coefficients\.im/,
+    );
     expect(() => bitTrueFilter({ ...ok, coefficients: { re: [-129], im: [0] } })).toThrow(/codes\.re\[0\]/);
   });
 });
@@ -267,7 +270,9 @@ describe("accumulatorGrowth", () => {
     fc.assert(
       fc.property(
         fc.integer({ min: 2, max: 24 }),
-        fc.integer({ min: 2, max: 20 }).chain((b) => fc.tuple(fc.constant(b), complexCodes(b, { min: 1, max: 64 }))),
+        fc
+          .integer({ min: 2, max: 20 })
+          .chain((b) => fc.tuple(fc.constant(b), complexCodes(b, { min: 1, max: 64 }))),
         (inputBits, [coefBits, h]) => {
           const g = accumulatorGrowth(inputBits, coefBits, h);
           // Independent: Σ(|re|+|im|) in BigInt; growth = smallest g with Σ ≤ 2^(B−1+g), by search.
