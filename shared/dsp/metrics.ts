@@ -5,6 +5,7 @@
  * 2nd ed., 2014, ch. 4 (PSL/ISLR, loss in peak gain vs SNR loss) — only the mainlobe rule is ours.
  */
 import { checkFiniteNumber, checkSignal } from "./check";
+import { interpolateSpectrum, powerOf } from "./compression";
 import type { ComplexSignal } from "./types";
 
 /** Speed of light in vacuum, m/s (SI definition, exact). */
@@ -170,4 +171,14 @@ export function coefficientSqnrDb(float: ComplexSignal, fixed: ComplexSignal): n
     err += dr * dr + di * di;
   }
   return db10(energy(float) / err);
+}
+
+/** A product spectrum interpolated ×U and measured: the full (reference) computation. */
+export function measureSpectrum(
+  spectrum: Float64Array,
+  opts: MeasureOptions,
+): { metrics: ResponseMetrics; y: Float64Array; power: Float64Array } {
+  const y = interpolateSpectrum(spectrum, opts.interpolation);
+  const power = powerOf(y);
+  return { metrics: measureResponse(power, opts), y, power };
 }

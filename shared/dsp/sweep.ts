@@ -1,0 +1,248 @@
+/**
+ * Bit-width sweep of a waveform pair: the compression figures for every word length W, computed cheaply.
+ *
+ * What is reused: the float output on the full ×U grid (computed once by the analysis) and the spectrum of
+ * every table that the sweep does not vary (by default the transmit table). Per W, only the varied
+ * table is quantized and transformed, and one M-point inverse FFT gives the coarse (U = 1) output over the
+ * whole range. The ×U figures are then refined only where they are decided:
+ *  - the fixed output is the float one plus a small difference Δ = y_fixed − y_float (known exactly on
+ *    the coarse grid); on the fine grid we use y_float (exact) + Δ interpolated locally with a
+ *    Kaiser-windowed sinc of ±KERNEL_HALF taps, so the error is a small fraction of Δ, not of y;
+ *  - that refined grid is evaluated around the mainlobe (peak, first minima, −3 dB points) and around
+ *    the strongest coarse and float sidelobes (PSL candidates);
+ *  - ISLR's total energy comes exactly from the spectrum (Parseval), so only the mainlobe sum is local.
+ * The smallest passing W and its neighbour below are then recomputed in full (confirmed), so the answer
+ * does not rest on the refinement. tests/unit/dsp/sweep.test.ts bounds refined − full.
+ */
+import { fftInterleaved } from "./fft";
+import { interpolatedEnergy } from "./compression";
+import { findMainlobe, halfPowerCrossing, measureSpectrum, SPEED_OF_LIGHT, type ResponseMetrics } from "./metrics";
+import { besselI0 } from "./windows";
+
+/** Half-length of the local interpolation kernel of Δ, in coarse samples. */
+export const KERNEL_HALF = 24;
+/** How many coarse and float sidelobe peaks are refined as PSL candidates. */
+export const PSL_CANDIDATES = 24;
+const KAISER_BETA = 8; // common practice for windowed-sinc interpolators (≈ −80 dB kernel sidelobes)
+
+/** Kernels k_r[t] = sinc(t − r/U)·kaiser, t = −K+1..K, for each fractional offset r = 1..U−1. */
+function interpolationKernels(u: number): Float64Array[] {
+  const kernels: Float64Array[] = [];
+  const k = KERNEL_HALF;
+  const i0b = besselI0(KAISER_BETA);
+  for (let r = 0; r < u; r++) {
+    const ker = new Float64Array(2 * k);
+    for (let t = -k + 1; t <= k; t++) {
+      const x = r / u - t; // distance from coarse sample n0+t to the fine point n0 + r/U
+      const sinc = x === 0 ? 1 : Math.sin(Math.PI * x) / (Math.PI * x);
+      const z = x / (k + 1);
+      const w = Math.abs(z) >= 1 ? 0 : besselI0(KAISER_BETA * Math.sqrt(1 - z * z)) / i0b;
+      ker[t + k - 1] = sinc * w;
+    }
+    kernels.push(ker);
+  }
+  return kernels;
+}
+
+/** What the sweep reuses from the float analysis. */
+export interface SweepReference {
+  /** Float output on the ×U grid, interleaved (M·U points). */
+  floatFine: Float64Array;
+  floatMetrics: ResponseMetrics;
+  /** Transform size M and interpolation U. */
+  size: number;
+  interpolation: number;
+  sampleRateHz: number;
+  /** Fine index where the target's peak belongs: U·(N−1). */
+  expectedIndex: number;
+}
+
+/** Precomputed per reference: kernels, the coarse float output and the float PSL candidates. */
+export interface SweepContext extends SweepReference {
+  kernels: Float64Array[];
+  floatCoarse: Float64Array;
+  floatCandidates: number[];
+}
+
+/** Top `count` indices of local maxima of `p` outside [lo, hi]. */
+function topLocalMaxima(p: (i: number) => number, length: number, lo: number, hi: number, count: number): number[] {
+  const best: { i: number; v: number }[] = [];
+  for (let i = 1; i + 1 < length; i++) {
+    if (i >= lo && i <= hi) continue;
+    const v = p(i);
+    if (v < p(i - 1) || v < p(i + 1) || v === 0) continue;
+    if (best.length < count) best.push({ i, v });
+    else {
+      let m = 0;
+      for (let j = 1; j < best.length; j++) if (best[j]!.v < best[m]!.v) m = j;
+      if (v > best[m]!.v) best[m] = { i, v };
+    }
+  }
+  return best.map((b) => b.i);
+}
+
+/** Build the reusable context once per analysis. */
+export function prepareSweep(ref: SweepReference): SweepContext {
+  const u = ref.interpolation;
+  const m = ref.size;
+  const floatCoarse = new Float64Array(2 * m);
+  for (let n = 0; n < m; n++) {
+    floatCoarse[2 * n] = ref.floatFine[2 * n * u]!;
+    floatCoarse[2 * n + 1] = ref.floatFine[2 * n * u + 1]!;
+  }
+  const f = ref.floatFine;
+  const pf = (i: number) => f[2 * i]! * f[2 * i]! + f[2 * i + 1]! * f[2 * i + 1]!;
+  const peak = ref.floatMetrics.peakPositionSamples * u;
+  const lo = peak + ref.floatMetrics.mainlobeSamples.left * u;
+  const hi = peak + ref.floatMetrics.mainlobeSamples.right * u;
+  const floatCandidates = topLocalMaxima(pf, m * u, lo, hi, PSL_CANDIDATES).map((i) => Math.round(i / u));
+  return { ...ref, kernels: interpolationKernels(u), floatCoarse, floatCandidates };
+}
+
+/**
+ * Refined ×U figures of a fixed-point product spectrum (M bins). Equal to the full computation when
+ * U = 1; otherwise within the tolerances tests/unit/dsp/sweep.test.ts states.
+ */
+export function refinedResponse(ctx: SweepContext, spectrum: Float64Array): ResponseMetrics {
+  const u = ctx.interpolation;
+  const m = ctx.size;
+  const coarse = fftInterleaved(spectrum, true);
+  const delta = new Float64Array(2 * m);
+  for (let i = 0; i < 2 * m; i++) delta[i] = coarse[i]! - ctx.floatCoarse[i]!;
+  const k = KERNEL_HALF;
+  const ff = ctx.floatFine;
+  // |y_fixed|² at fine index j: float (exact) + Δ (exact at coarse points, locally interpolated between).
+  const fineP = (j: number): number => {
+    const n0 = Math.floor(j / u);
+    const r = j - n0 * u;
+    let dr: number;
+    let di: number;
+    if (r === 0) {
+      const n = ((n0 % m) + m) % m;
+      dr = delta[2 * n]!;
+      di = delta[2 * n + 1]!;
+    } else {
+      const ker = ctx.kernels[r]!;
+      dr = 0;
+      di = 0;
+      for (let t = -k + 1; t <= k; t++) {
+        const n = (((n0 + t) % m) + m) % m;
+        const c = ker[t + k - 1]!;
+        dr += c * delta[2 * n]!;
+        di += c * delta[2 * n + 1]!;
+      }
+    }
+    const jj = ((j % (m * u)) + m * u) % (m * u);
+    const re = ff[2 * jj]! + dr;
+    const im = ff[2 * jj + 1]! + di;
+    return re * re + im * im;
+  };
+  const pc = (n: number) => coarse[2 * n]! * coarse[2 * n]! + coarse[2 * n + 1]! * coarse[2 * n + 1]!;
+  let cPeak = 0;
+  for (let n = 1; n < m; n++) if (pc(n) > pc(cPeak)) cPeak = n;
+  // Mainlobe on a fine window around the coarse peak, widened until both first minima lie inside it.
+  let half = Math.max(4, Math.ceil(Math.max(-ctx.floatMetrics.mainlobeSamples.left, ctx.floatMetrics.mainlobeSamples.right)) + 2);
+  for (;;) {
+    const start = (cPeak - half) * u;
+    const len = 2 * half * u + 1;
+    const win = new Float64Array(len);
+    for (let i = 0; i < len; i++) win[i] = fineP(start + i);
+    let p = 0;
+    for (let i = 1; i < len; i++) if (win[i]! > win[p]!) p = i;
+    const lobe = findMainlobe(win, p);
+    if ((lobe.left === 0 || lobe.right === len - 1) && half < m / 2) {
+      half *= 2;
+      continue;
+    }
+    const peakP = win[p]!;
+    let mainE = 0;
+    for (let i = lobe.left; i <= lobe.right; i++) mainE += win[i]!;
+    const total = interpolatedEnergy(spectrum, u);
+    const lo = start + lobe.left;
+    const hi = start + lobe.right;
+    // PSL: every coarse sidelobe sample is exact; candidates get the fine points between their neighbours.
+    let maxSide = 0;
+    for (let n = 0; n < m; n++) {
+      const j = n * u;
+      if (j >= lo && j <= hi) continue;
+      if (pc(n) > maxSide) maxSide = pc(n);
+    }
+    const coarseCandidates = topLocalMaxima(pc, m, Math.floor(lo / u), Math.ceil(hi / u), PSL_CANDIDATES);
+    const seen = new Set<number>();
+    for (const n of [...coarseCandidates, ...ctx.floatCandidates]) {
+      for (let j = (n - 1) * u + 1; j < (n + 1) * u; j++) {
+        if ((j >= lo && j <= hi) || seen.has(j)) continue;
+        seen.add(j);
+        const v = fineP(j);
+        if (v > maxSide) maxSide = v;
+      }
+    }
+    const hp = peakP / 2;
+    const width = (halfPowerCrossing(win, p, hp, 1) - halfPowerCrossing(win, p, hp, -1)) / u;
+    const seconds = width / ctx.sampleRateHz;
+    const peakIndex = start + p;
+    return {
+      peakAmplitude: Math.sqrt(peakP),
+      peakPositionSamples: peakIndex / u,
+      peakOffsetSamples: (peakIndex - ctx.expectedIndex) / u,
+      pslDb: 10 * Math.log10(maxSide / peakP),
+      islrDb: 10 * Math.log10(Math.max(total - mainE, 0) / mainE),
+      width3dbSamples: width,
+      width3dbSeconds: seconds,
+      width3dbMetres: (seconds * SPEED_OF_LIGHT) / 2,
+      mainlobeSamples: { left: (lo - peakIndex) / u, right: (hi - peakIndex) / u },
+    };
+  }
+}
+
+/** The full computation for one product spectrum (the reference the refinement is checked against). */
+export function fullResponse(ctx: SweepReference, spectrum: Float64Array): ResponseMetrics {
+  return measureSpectrum(spectrum, {
+    interpolation: ctx.interpolation,
+    sampleRateHz: ctx.sampleRateHz,
+    expectedIndex: ctx.expectedIndex,
+  }).metrics;
+}
+
+/** One row of a sweep. */
+export interface SweepRow<T> {
+  wordLength: number;
+  figures: T;
+  pass: boolean;
+  /** "refined": ×U figures from the local refinement; "full": recomputed on the whole ×U grid. */
+  method: "refined" | "full" | "exact";
+}
+
+/**
+ * Smallest W whose row passes, confirmed by `full` at that W and at W−1: rows are recomputed in full
+ * until a passing full row sits directly above a failing one (or the range end). Returns null when none passes.
+ */
+export function confirmSmallest<T>(
+  rows: SweepRow<T>[],
+  full: (wordLength: number) => { figures: T; pass: boolean },
+): number | null {
+  const confirm = (i: number) => {
+    const row = rows[i]!;
+    if (row.method === "refined") {
+      const f = full(row.wordLength);
+      rows[i] = { wordLength: row.wordLength, figures: f.figures, pass: f.pass, method: "full" };
+    }
+    return rows[i]!.pass;
+  };
+  let i = rows.findIndex((r) => r.pass);
+  if (i < 0) {
+    // Refinement said nothing passes: the widest W decides (confirm it; if it passes, walk down).
+    i = rows.length - 1;
+    if (!confirm(i)) return null;
+  }
+  for (;;) {
+    if (!confirm(i)) {
+      i++;
+      while (i < rows.length && !rows[i]!.pass) i++;
+      if (i >= rows.length) return null;
+      continue;
+    }
+    if (i === 0 || !confirm(i - 1)) return rows[i]!.wordLength;
+    i--;
+  }
+}

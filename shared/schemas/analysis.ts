@@ -1,0 +1,151 @@
+/**
+ * The analysis spec: what `analyze()` (shared/dsp/analysis.ts), the command line and the web app's
+ * forms accept. Parsing applies the defaults, so a parsed spec is complete and reproducible.
+ */
+import { z } from "zod";
+
+const positive = (unit: string) => z.number().positive(`must be > 0 ${unit}`).finite();
+const sampleArray = z.array(z.number().finite()).min(1, "at least one sample").max(4_194_304);
+
+/** A window kind with its parameters (shared/dsp/windows.ts WindowSpec). */
+export const WindowSpecSchema = z.discriminatedUnion("kind", [
+  z.object({ kind: z.literal("rectangular") }),
+  z.object({ kind: z.literal("hann") }),
+  z.object({ kind: z.literal("hamming") }),
+  z.object({ kind: z.literal("blackman") }),
+  z.object({ kind: z.literal("blackman-harris") }),
+  z.object({ kind: z.literal("kaiser"), beta: z.number().min(0).max(100) }),
+  z.object({ kind: z.literal("chebyshev"), attenuationDb: z.number().min(13).max(300) }),
+  z.object({ kind: z.literal("taylor"), nbar: z.number().int().min(1).max(100), sidelobeDb: z.number().min(-300).max(-13) }),
+]);
+
+/** Fixed-point format of one table (shared/dsp/types.ts FixedPointSpec), with the usual defaults. */
+export const FixedPointSpecSchema = z.object({
+  wordLength: z.number().int().min(2).max(32),
+  fractionLength: z.number().int().min(-64).max(96),
+  signed: z.boolean().default(true),
+  scaling: z.enum(["as-given", "normalize", "full-scale"]).default("full-scale"),
+  rounding: z.enum(["nearest-away", "nearest-even", "floor", "toward-zero"]).default("nearest-even"),
+  overflow: z.enum(["saturate", "wrap"]).default("saturate"),
+});
+
+/** Acceptance limits; every field optional (absent = not checked). */
+export const AcceptanceLimitsSchema = z.object({
+  pslDbMax: z.number().finite().optional(),
+  islrDbMax: z.number().finite().optional(),
+  mismatchLossDbMax: z.number().finite().optional(),
+  peakLossDbMax: z.number().finite().optional(),
+  coefficientSqnrDbMin: z.number().finite().optional(),
+  stopbandAttenuationDbMin: z.number().finite().optional(),
+  passbandRippleDbMax: z.number().finite().optional(),
+});
+
+/** The transmit waveform: from a generator's parameters or as explicit samples. */
+export const WaveformSourceSchema = z.discriminatedUnion("kind", [
+  z.object({
+    kind: z.literal("lfm"),
+    bandwidthHz: positive("Hz"),
+    pulseWidthS: positive("s"),
+    sampleRateHz: positive("Hz"),
+    direction: z.enum(["up", "down"]).default("up"),
+    output: z.enum(["complex", "real"]).default("complex"),
+    intermediateFrequencyHz: z.number().finite().optional(),
+  }),
+  z.object({
+    kind: z.literal("nlfm"),
+    bandwidthHz: positive("Hz"),
+    pulseWidthS: positive("s"),
+    sampleRateHz: positive("Hz"),
+    window: WindowSpecSchema,
+  }),
+  z.object({
+    kind: z.literal("phase-code"),
+    code: z.discriminatedUnion("kind", [
+      z.object({ kind: z.literal("barker"), length: z.literal([2, 3, 4, 5, 7, 11, 13]) }),
+      z.object({ kind: z.enum(["frank", "p1", "p2"]), order: z.number().int().min(2).max(64) }),
+      z.object({ kind: z.enum(["p3", "p4"]), length: z.number().int().min(2).max(4096) }),
+    ]),
+    samplesPerChip: z.number().int().min(1).max(256).default(1),
+    sampleRateHz: positive("Hz"),
+  }),
+  z.object({
+    kind: z.literal("samples"),
+    sampleRateHz: positive("Hz"),
+    re: sampleArray,
+    im: sampleArray.optional(),
+  }),
+]);
+
+/** A FIR filter: designed by the windowed-sinc method, or explicit taps with the bands to judge them by. */
+export const FirSourceSchema = z.discriminatedUnion("kind", [
+  z.object({
+    kind: z.literal("design"),
+    band: z.enum(["lowpass", "bandpass"]),
+    sampleRateHz: positive("Hz"),
+    cutoffHz: positive("Hz").optional(),
+    lowCutoffHz: positive("Hz").optional(),
+    highCutoffHz: positive("Hz").optional(),
+    transitionHz: positive("Hz"),
+    stopbandAttenuationDb: z.number().min(10).max(200),
+    window: WindowSpecSchema.optional(),
+    taps: z.number().int().min(1).max(65_536).optional(),
+  }),
+  z.object({
+    kind: z.literal("taps"),
+    sampleRateHz: positive("Hz"),
+    re: sampleArray,
+    im: sampleArray.optional(),
+    /** Band edges in Hz, [low, high] pairs; real taps are judged on |f|. */
+    passbands: z.array(z.tuple([z.number().finite(), z.number().finite()])).min(1),
+    stopbands: z.array(z.tuple([z.number().finite(), z.number().finite()])).min(1),
+  }),
+]);
+
+/** Which word lengths the sweep tries, and which tables it varies (default: the receive/FIR table). */
+export const SweepSpecSchema = z
+  .object({
+    minBits: z.number().int().min(2).max(32).default(6),
+    maxBits: z.number().int().min(2).max(32).default(24),
+    tables: z.array(z.enum(["tx", "rx", "fir"])).min(1).optional(),
+  })
+  .refine((s) => s.minBits <= s.maxBits, { message: "minBits must not exceed maxBits", path: ["maxBits"] });
+
+const common = {
+  /** Interpolation factor U of the compressed output before measuring (1 = none). */
+  interpolation: z.number().int().min(1).max(16).default(8),
+  limits: AcceptanceLimitsSchema.default({}),
+  sweep: SweepSpecSchema.optional(),
+  /** ADC (input) word length, for the accumulator growth. */
+  inputBits: z.number().int().min(2).max(32).default(14),
+};
+
+/** A waveform design: transmit table + matched receive filter h[n] = w[n]·conj(s[N−1−n]). */
+export const WaveformAnalysisSpecSchema = z.object({
+  kind: z.literal("waveform"),
+  tx: WaveformSourceSchema,
+  rx: z.object({ window: WindowSpecSchema.default({ kind: "rectangular" }) }).default({ window: { kind: "rectangular" } }),
+  fixedPoint: z.object({ tx: FixedPointSpecSchema, rx: FixedPointSpecSchema }),
+  /** Doppler frequency of the echo for the ambiguity cut, Hz (absent = no Doppler cut). */
+  dopplerHz: z.number().finite().optional(),
+  ...common,
+});
+
+/** A FIR design: one table `fir`. */
+export const FilterAnalysisSpecSchema = z.object({
+  kind: z.literal("filter"),
+  fir: FirSourceSchema,
+  fixedPoint: z.object({ fir: FixedPointSpecSchema }),
+  /** Points of the frequency response (at least 8192). */
+  responsePoints: z.number().int().min(8192).max(1_048_576).default(8192),
+  ...common,
+});
+
+/** Everything `analyze()` needs. */
+export const AnalysisSpecSchema = z.discriminatedUnion("kind", [WaveformAnalysisSpecSchema, FilterAnalysisSpecSchema]);
+
+/** A parsed (defaults applied) analysis spec. */
+export type AnalysisSpec = z.infer<typeof AnalysisSpecSchema>;
+/** What callers may write (defaults optional). */
+export type AnalysisSpecInput = z.input<typeof AnalysisSpecSchema>;
+export type WaveformSource = z.infer<typeof WaveformSourceSchema>;
+export type FirSource = z.infer<typeof FirSourceSchema>;
