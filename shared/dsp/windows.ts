@@ -92,16 +92,23 @@ export function makeWindow(spec: WindowSpec, n: number, opts?: { periodic?: bool
 
 function symmetricWindow(spec: WindowSpec, n: number): Float64Array {
   if (n === 1) return Float64Array.of(1);
+  let w: Float64Array;
   switch (spec.kind) {
     case "kaiser":
-      return kaiserWindow(spec.beta, n);
+      w = kaiserWindow(spec.beta, n);
+      break;
     case "chebyshev":
-      return chebyshevWindow(spec.attenuationDb, n);
+      w = chebyshevWindow(spec.attenuationDb, n);
+      break;
     case "taylor":
-      return taylorWindow(spec.nbar, spec.sidelobeDb, n);
+      w = taylorWindow(spec.nbar, spec.sidelobeDb, n);
+      break;
     default:
-      return cosineSum(COSINE_SUMS[spec.kind]!, n);
+      w = cosineSum(COSINE_SUMS[spec.kind]!, n);
   }
+  // Mirror the first half so w[n] = w[N−1−n] bit for bit: symmetric taps must quantize to symmetric codes.
+  for (let i = 0; i < n >> 1; i++) w[n - 1 - i] = w[i]!;
+  return w;
 }
 
 function cosineSum(a: readonly number[], n: number): Float64Array {
