@@ -79,10 +79,11 @@ describe("quantize: properties (fast-check)", () => {
           const { min, max } = codeRange(s);
           const q = quantize({ re: Float64Array.from(xs), im: Float64Array.from(xs, (v) => -v) }, s);
           for (let i = 0; i < xs.length; i++) {
-            for (const [c, v] of [
+            const pairs: [number, number][] = [
               [q.re[i]!, q.valueRe[i]!],
               [q.im[i]!, q.valueIm[i]!],
-            ]) {
+            ];
+            for (const [c, v] of pairs) {
               expect(Number.isInteger(c) && c >= min && c <= max).toBe(true);
               expect(v).toBe(c * 2 ** -s.fractionLength);
             }
