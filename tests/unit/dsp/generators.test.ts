@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { fftInterleaved, nextPow2, toInterleaved } from "@shared/dsp/fft";
 import { linearFm } from "@shared/dsp/lfm";
 import { matchedFilter } from "@shared/dsp/matched-filter";
+import { nlfmFrequency, nonlinearFm } from "@shared/dsp/nlfm";
 import { BARKER_CODES, phaseCode, phaseCodePhases, type PhaseCodeSpec } from "@shared/dsp/phase-codes";
 import type { ComplexSignal } from "@shared/dsp/types";
 
@@ -347,5 +348,80 @@ describe("polyphase codes", () => {
     expect(() => phaseCode({ kind: "barker", length: 13 }, { samplesPerChip: 0 })).toThrow(/samplesPerChip/);
     expect(() => phaseCode({ kind: "barker", length: 13 }, { samplesPerChip: Infinity })).toThrow(/samplesPerChip/);
     expect(() => phaseCode({ kind: "golay" } as unknown as PhaseCodeSpec)).toThrow(TypeError);
+  });
+});
+
+describe("nonlinear FM by stationary phase (Cook & Bernfeld 1967; Richards 2014 §4.6.3)", () => {
+  const B = 1e6;
+
+  it("a rectangular spectral window gives back the linear FM chirp (odd and even N)", () => {
+    for (const fs of [3e6, 2e6]) {
+      const s = nonlinearFm({ bandwidthHz: B, pulseWidthS: 1e-4, sampleRateHz: fs, window: { kind: "rectangular" } });
+      const l = linearFm({ bandwidthHz: B, pulseWidthS: 1e-4, sampleRateHz: fs });
+      for (let i = 0; i < s.re.length; i++) expect(Math.hypot(s.re[i]! - l.re[i]!, s.im[i]! - l.im[i]!)).toBeLessThan(1e-12);
+    }
+  });
+
+  it("has unit modulus and a monotonic sweep over −B/2..+B/2", () => {
+    const opts = { bandwidthHz: B, pulseWidthS: 2e-4, sampleRateHz: 2e6, window: { kind: "hamming" } } as const;
+    const s = nonlinearFm(opts);
+    expect(s.re.length).toBe(400);
+    for (let i = 0; i < 400; i++) expect(Math.hypot(s.re[i]!, s.im[i]!)).toBeCloseTo(1, 14);
+    const f = nlfmFrequency(opts);
+    for (let i = 1; i < f.length; i++) expect(f[i]!).toBeGreaterThan(f[i - 1]!);
+    expect(f[0]!).toBeGreaterThan(-B / 2);
+    expect(f[f.length - 1]!).toBeLessThan(B / 2);
+    // Sweeps fastest where the window is small: the edges cover more band per sample than the centre.
+    expect(f[1]! - f[0]!).toBeGreaterThan(3 * (f[201]! - f[200]!));
+  });
+
+  it("its power spectrum follows the window: Hamming at ±B/4 is 0.54 of the centre (−2.7 dB) at BT = 1000", () => {
+    // Stationary phase (Cook & Bernfeld 1967): |S(f)|² ∝ W(f). Averaged over B/10-wide bands to smooth the Fresnel
+    // ripple; the Hamming window at x = ¼ or ¾ of its span is 0.54 − 0.46·cos(π/2) = 0.54 (derived). Measured −2.64 dB.
+    const fs = 4e6;
+    const s = nonlinearFm({ bandwidthHz: B, pulseWidthS: 1e-3, sampleRateHz: fs, window: { kind: "hamming" } });
+    const size = 16384;
+    const x = fftInterleaved(toInterleaved(s, size));
+    const bandPower = (fc: number) => {
+      let p = 0;
+      for (let k = 0; k < size; k++) {
+        const f = ((k < size / 2 ? k : k - size) * fs) / size;
+        if (Math.abs(f - fc) <= B / 20) p += x[2 * k]! ** 2 + x[2 * k + 1]! ** 2;
+      }
+      return p;
+    };
+    const centre = bandPower(0);
+    for (const fc of [-B / 4, B / 4]) expect(Math.abs(10 * Math.log10(bandPower(fc) / centre) - 10 * Math.log10(0.54))).toBeLessThan(0.3);
+  });
+
+  it("autocorrelation PSL is far below the LFM's at BT = 100 and nears the window's level as BT grows", () => {
+    // REFERENCES.md: LFM −13.39 dB at BT = 100 (eq. 4.99). Measured at fs = 2B, ×8 interpolation:
+    // Taylor(n̄ 6, −35 dB) NLFM −29.3 dB at BT = 100, −34.4 dB at BT = 1000; Hamming NLFM −31.9 dB at BT = 100.
+    const psl = (bt: number, window: Parameters<typeof nonlinearFm>[0]["window"]) => {
+      const s = nonlinearFm({ bandwidthHz: B, pulseWidthS: bt / B, sampleRateHz: 2 * B, window });
+      return peakSidelobe(compress(s, matchedFilter(s))).pslDb;
+    };
+    const taylor = { kind: "taylor", nbar: 6, sidelobeDb: -35 } as const;
+    const lfm = linearFm({ bandwidthHz: B, pulseWidthS: 100 / B, sampleRateHz: 2 * B });
+    const lfmPsl = peakSidelobe(compress(lfm, matchedFilter(lfm))).pslDb;
+    expect(lfmPsl).toBeGreaterThan(-13.6);
+    const t100 = psl(100, taylor);
+    expect(t100).toBeLessThan(-25);
+    expect(t100).toBeLessThan(lfmPsl - 12);
+    expect(psl(100, { kind: "hamming" })).toBeLessThan(-25);
+    const t1000 = psl(1000, taylor);
+    expect(t1000).toBeLessThan(t100);
+    expect(Math.abs(t1000 + 35)).toBeLessThan(1); // within 1 dB of the window's own −35 dB
+  });
+
+  it("bad input names the parameter", () => {
+    const ok = { bandwidthHz: B, pulseWidthS: 1e-4, sampleRateHz: 2e6, window: { kind: "hann" } } as const;
+    expect(() => nonlinearFm({ ...ok, bandwidthHz: Number.NaN })).toThrow(/bandwidthHz/);
+    expect(() => nonlinearFm({ ...ok, bandwidthHz: 0 })).toThrow(/bandwidthHz/);
+    expect(() => nonlinearFm({ ...ok, pulseWidthS: -1 })).toThrow(/pulseWidthS/);
+    expect(() => nonlinearFm({ ...ok, sampleRateHz: 0.5e6 })).toThrow(/sampleRateHz/);
+    expect(() => nonlinearFm({ ...ok, sampleRateHz: Infinity })).toThrow(/sampleRateHz/);
+    expect(() => nonlinearFm({ ...ok, window: undefined as unknown as typeof ok.window })).toThrow(TypeError);
+    expect(() => nonlinearFm({ ...ok, window: { kind: "kaiser", beta: Number.NaN } })).toThrow(/beta/);
   });
 });
