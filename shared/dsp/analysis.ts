@@ -159,7 +159,7 @@ function tableReport(role: TableReport["role"], float: ComplexSignal, q: Quantiz
   };
 }
 
-const finite = (v: number): number | null => (Number.isFinite(v) ? v : null);
+const finite = (v: number): number | null => (Number.isFinite(v) ? v + 0 : null);
 
 /** Plain numeric fields of a figures object (nested objects dropped). */
 function flat(o: object): Record<string, number | null> {
@@ -209,7 +209,7 @@ function worstOf(tables: TableReport[]): number | null {
 
 const round = (v: number, digits = 3) => {
   const f = 10 ** digits;
-  return Math.round(v * f) / f;
+  return Math.round(v * f) / f + 0; // + 0: no −0 in the JSON
 };
 const toDb = (p: number, ref: number) => round(Math.max(10 * Math.log10(p / ref), -200));
 
