@@ -15,8 +15,8 @@ export interface NavItem {
 export const NAV_ITEMS: readonly NavItem[] = [
   { to: "/", label: "Home", roles: [], end: true },
   { to: "/projects", label: "Projects", roles: [] },
-  { to: "/admin/users", label: "Users", roles: ["admin"], group: "Admin" },
   { to: "/account", label: "Account", roles: [] },
+  { to: "/admin/users", label: "Users", roles: ["admin"], group: "Admin" },
 ];
 
 /** The entries a user with these roles may see, in order. */

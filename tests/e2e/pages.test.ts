@@ -111,7 +111,8 @@ describe("keyboard and URL state", () => {
     await page.keyboard.press("/");
     expect(await page.evaluate(() => document.activeElement?.id)).toBe("project-search");
     await page.keyboard.type("coast");
-    await page.waitForURL(/\/projects\?q=coast$/);
+    // replaceState is a same-document navigation: poll the URL rather than wait for a load event.
+    await expect.poll(() => page.url()).toMatch(/\/projects\?q=coast$/);
     expect(await page.getByRole("table", { name: "Projects" }).getByRole("link").allTextContents()).toEqual([
       "Coastwatch-S surveillance radar",
     ]);

@@ -25,7 +25,7 @@ describe("sign-in and the home page per role", () => {
     // Seeded: both projects visible to the admin.
     expect(await table.getByRole("link").allTextContents()).toEqual(["Coastwatch-S surveillance radar", "Harbour lidar trials"]);
     const nav = page.getByRole("navigation", { name: "Main" });
-    expect(await nav.getByRole("link").allTextContents()).toEqual(["Home", "Projects", "Users", "Account"]);
+    expect(await nav.getByRole("link").allTextContents()).toEqual(["Home", "Projects", "Account", "Users"]);
     expect(foreign).toEqual([]);
     expect(pageErrors).toEqual([]);
     await context.close();

@@ -56,7 +56,7 @@ export function UsersPage({ currentUserId }: { currentUserId: number }) {
               const self = u.id === currentUserId;
               return (
                 <Tr key={u.id} className={u.active ? undefined : "text-ink-600"}>
-                  <Td className="font-medium">
+                  <Td className="font-medium whitespace-nowrap">
                     {u.displayName}
                     {self && <span className="ml-1.5 text-xs font-normal text-ink-600">(you)</span>}
                   </Td>

@@ -73,6 +73,16 @@ export function HomePage({ renderProjects }: { renderProjects: (projects: readon
             Signed in as <span className="font-mono">{user.username}</span> <RoleBadges roles={user.roles} />
           </span>
         }
+        action={
+          isAdmin ? (
+            <Link
+              to="/admin/users"
+              className="inline-flex h-8 items-center rounded border border-signal-800 bg-signal-700 px-3 text-sm font-medium text-white hover:bg-signal-800"
+            >
+              Manage users
+            </Link>
+          ) : undefined
+        }
       />
       <StatStrip home={home.data} />
       <Section title="My roles">
@@ -120,13 +130,6 @@ export function HomePage({ renderProjects }: { renderProjects: (projects: readon
             </dd>
           </dl>
         </Section>
-      )}
-      {isAdmin && (
-        <p className="text-xs text-ink-600">
-          <Link to="/admin/users" className="text-signal-800 hover:underline">
-            Manage users
-          </Link>
-        </p>
       )}
     </>
   );

@@ -48,7 +48,11 @@ export function ProjectPage() {
         title={project.name}
         subtitle={
           <>
-            {project.description || "No description"} · created <span className="font-mono">{formatDate(project.createdAt)}</span>
+            <p className="max-w-3xl">{project.description || "No description."}</p>
+            <p className="mt-1 text-xs">
+              Slug <span className="font-mono">{project.slug}</span> · created{" "}
+              <span className="font-mono">{formatDate(project.createdAt)}</span> · {project.memberCount} members
+            </p>
           </>
         }
       />
