@@ -1,6 +1,6 @@
 import { and, eq, inArray, notInArray } from "drizzle-orm";
 import type { Role } from "../../shared/schemas/auth";
-import { hashPassword, verifyPassword } from "../auth/passwords";
+import { hashPassword } from "../auth/passwords";
 import type { Db } from "./client";
 import { projectMembers, projects, userRoles, users } from "./schema";
 
@@ -63,45 +63,40 @@ export const DEMO_PROJECTS = [
   },
 ] as const;
 
+/** The stored hash for an existing account (kept), or a fresh hash of the demo password. */
+async function hashIfMissing(db: Db, a: DemoAccount): Promise<string> {
+  const [existing] = await db
+    .select({ hash: users.passwordHash })
+    .from(users)
+    .where(eq(users.username, a.username));
+  return existing?.hash ?? hashPassword(a.password);
+}
+
 /**
- * Insert or refresh the demo accounts and projects. Idempotent: a second run changes nothing, and a
- * password is re-hashed only when the stored hash no longer matches the demo password.
+ * Insert or refresh the demo accounts and projects. Idempotent: a second run changes nothing; existing
+ * demo accounts are reactivated and get their roles and names back, but keep their current password.
  */
 export async function seedDemo(db: Db): Promise<void> {
   const ids = new Map<string, number>();
   for (const a of DEMO_ACCOUNTS) {
-    const [existing] = await db.select().from(users).where(eq(users.username, a.username));
-    let id: number;
-    if (existing) {
-      id = existing.id;
-      const samePassword = await verifyPassword(a.password, existing.passwordHash);
-      await db
-        .update(users)
-        .set({
-          displayName: a.displayName,
-          email: a.email,
-          active: true,
-          mustChangePassword: false,
-          ...(samePassword ? {} : { passwordHash: await hashPassword(a.password) }),
-        })
-        .where(eq(users.id, id));
-    } else {
-      const [row] = await db
-        .insert(users)
-        .values({
-          username: a.username,
-          displayName: a.displayName,
-          email: a.email,
-          passwordHash: await hashPassword(a.password),
-          mustChangePassword: false,
-        })
-        .onConflictDoNothing({ target: users.username })
-        .returning({ id: users.id });
-      // A concurrent seed may have inserted the row between our select and insert.
-      id =
-        row?.id ??
-        (await db.select({ id: users.id }).from(users).where(eq(users.username, a.username)))[0]!.id;
-    }
+    // Existing accounts keep their password: a developer who changed it keeps it, and a warm start
+    // spends no bcrypt time (about a second per hash with bcryptjs at cost 12 on a small machine).
+    const [row] = await db
+      .insert(users)
+      .values({
+        username: a.username,
+        displayName: a.displayName,
+        email: a.email,
+        passwordHash: await hashIfMissing(db, a),
+        mustChangePassword: false,
+      })
+      .onConflictDoUpdate({
+        target: users.username,
+        set: { displayName: a.displayName, email: a.email, active: true },
+      })
+      .returning({ id: users.id });
+    if (!row) throw new Error(`could not upsert user ${a.username}`);
+    const id = row.id;
     ids.set(a.username, id);
     await db.delete(userRoles).where(and(eq(userRoles.userId, id), notInArray(userRoles.role, a.roles)));
     await db
