@@ -11,7 +11,14 @@
  */
 import { absoluteCodeSum, accumulatorGrowth, checkSignedCodes } from "./accumulator";
 import { checkInteger, checkSignal, MAX_SAMPLES } from "./check";
-import { checkOverflowMode, checkRoundingMode, integerRange, roundToInteger, wrapInteger } from "./quantize";
+import {
+  checkOverflowMode,
+  checkRoundingMode,
+  integerRange,
+  ROUNDING_CODE,
+  roundByCode,
+  wrapInteger,
+} from "./quantize";
 import type { OverflowMode, RoundingMode } from "./types";
 
 /** Integer I/Q samples (exact integers in float64 or plain arrays). */
@@ -183,10 +190,11 @@ export function bitTrueFilter(opts: BitTrueOptions): BitTrueResult {
 
   if (exactPath === "float64") {
     convolveFloat(input, coefficients, re, im);
+    const code = ROUNDING_CODE[rounding];
     const step = 2 ** -outputShift; // exact: |acc| ≤ 2^53 and a power-of-two scale loses no bits
     for (const y of [re, im]) {
       for (let n = 0; n < ny; n++) {
-        let c = roundToInteger(y[n]! * step, rounding);
+        let c = roundByCode(y[n]! * step, code);
         if (c > max || c < min) {
           overflowCount++;
           c = overflow === "saturate" ? (c > max ? max : min) : wrapInteger(c, outputBits, true);

@@ -62,31 +62,32 @@ export function codeRange(spec: FixedPointSpec): { min: number; max: number } {
   return integerRange(spec.wordLength, spec.signed);
 }
 
+/** Rounding modes as small integers, so hot loops branch on a number, not a string. */
+export const ROUNDING_CODE: Readonly<Record<RoundingMode, number>> = {
+  floor: 0,
+  "toward-zero": 1,
+  "nearest-away": 2,
+  "nearest-even": 3,
+};
+
 /**
- * Rounds a real number to an integer with the given mode. `u - floor(u)` is exact in float64,
+ * Rounds u to an integer by rounding code (see ROUNDING_CODE). `u - floor(u)` is exact in float64,
  * so ties are detected exactly (no `floor(u + 0.5)`, which misrounds 0.49999999999999994).
  */
+export function roundByCode(u: number, code: number): number {
+  if (code === 0) return Math.floor(u);
+  if (code === 1) return Math.trunc(u);
+  const f = Math.floor(u);
+  const d = u - f;
+  if (d > 0.5) return f + 1;
+  if (d < 0.5) return f;
+  if (code === 2) return u > 0 ? f + 1 : f; // tie: away from zero
+  return f % 2 === 0 ? f : f + 1; // tie: to even
+}
+
+/** Rounds a real number to an integer with the given mode (IEEE 754-2019 §4.3 semantics). */
 export function roundToInteger(u: number, mode: RoundingMode): number {
-  switch (mode) {
-    case "floor":
-      return Math.floor(u);
-    case "toward-zero":
-      return Math.trunc(u);
-    case "nearest-away": {
-      const f = Math.floor(u);
-      const d = u - f;
-      if (d > 0.5) return f + 1;
-      if (d < 0.5) return f;
-      return u > 0 ? f + 1 : f;
-    }
-    case "nearest-even": {
-      const f = Math.floor(u);
-      const d = u - f;
-      if (d > 0.5) return f + 1;
-      if (d < 0.5) return f;
-      return f % 2 === 0 ? f : f + 1;
-    }
-  }
+  return roundByCode(u, ROUNDING_CODE[mode]);
 }
 
 /**
@@ -153,8 +154,8 @@ function buffer(name: string, given: Float64Array | undefined, n: number): Float
 
 /**
  * Quantizes one component array in place into `codes`/`values`; returns the overflow count.
- * `scale` is gain·2^F (a power of two unless full-scale); for full-scale `peak` is divided out first
- * so the largest component lands exactly on the largest code.
+ * `scale` is gain·2^F (a power of two unless full-scale); for full-scale a component equal to ±peak
+ * is set to ±max directly so the largest component lands exactly on the largest code.
  */
 function quantizeComponent(
   x: Float64Array,
@@ -166,13 +167,16 @@ function quantizeComponent(
 ): number {
   const { min, max } = integerRange(spec.wordLength, spec.signed);
   const step = 2 ** -spec.fractionLength;
-  const { rounding, overflow, wordLength, signed } = spec;
+  const { overflow, wordLength, signed } = spec;
+  const rounding = ROUNDING_CODE[spec.rounding];
   let overflows = 0;
   for (let i = 0; i < x.length; i++) {
-    const u = fullScalePeak > 0 ? (x[i]! / fullScalePeak) * max : x[i]! * scale;
+    const xi = x[i]!;
+    // Full-scale: the peak itself maps exactly onto ±max (x·max/peak may be one ulp off, and floor would lose a code).
+    const u = xi === fullScalePeak ? max : xi === -fullScalePeak ? -max : xi * scale;
     if (!Number.isFinite(u))
       throw new RangeError(`signal[${i}] × 2^${spec.fractionLength} is outside the float64 range`);
-    let c = roundToInteger(u, rounding);
+    let c = roundByCode(u, rounding);
     if (c > max || c < min) {
       overflows++;
       c = overflow === "saturate" ? (c > max ? max : min) : wrapInteger(c, wordLength, signed);
@@ -198,7 +202,7 @@ export function quantize(signal: ComplexSignal, spec: FixedPointSpec, out?: Quan
   const valueIm = buffer("valueIm", out?.valueIm, n);
   const peak = peakComponent(signal);
   const gain = scalingGain(peak, spec);
-  const fullScalePeak = spec.scaling === "full-scale" && peak > 0 ? peak : 0;
+  const fullScalePeak = spec.scaling === "full-scale" && peak > 0 ? peak : NaN; // NaN equals nothing: no snapping
   const scale = gain * 2 ** spec.fractionLength;
   const overflowCount =
     quantizeComponent(signal.re, re, valueRe, spec, scale, fullScalePeak) +
