@@ -48,7 +48,7 @@ export function accumulatorGrowth(
   inputBits: number,
   coefficientBits: number,
   codes: { re: ArrayLike<number>; im: ArrayLike<number> },
-): { worstCaseBits: number; recommendedBits: number; absoluteSum: bigint; exactBits: number } {
+): { worstCaseBits: number; recommendedBits: number; absoluteSum: string; exactBits: number } {
   checkInteger("inputBits", inputBits, 2, 32);
   checkInteger("coefficientBits", coefficientBits, 2, 32);
   checkSignal("codes", codes);
@@ -66,5 +66,6 @@ export function accumulatorGrowth(
   // Smallest signed width A with 2^(inputBits−1)·sum ≤ 2^(A−1) − 1 (so both signs fit).
   const bound = sum << BigInt(inputBits - 1);
   const exactBits = Math.max(2, bitLength(bound) + 1);
-  return { worstCaseBits, recommendedBits: worstCaseBits, absoluteSum: sum, exactBits };
+  // absoluteSum as decimal text: exact, and safe to put in a JSON report (a BigInt is not).
+  return { worstCaseBits, recommendedBits: worstCaseBits, absoluteSum: sum.toString(), exactBits };
 }

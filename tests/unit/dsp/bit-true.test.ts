@@ -279,7 +279,7 @@ describe("accumulatorGrowth", () => {
           const g = accumulatorGrowth(inputBits, coefBits, h);
           // Independent: Σ(|re|+|im|) in BigInt; growth = smallest g with Σ ≤ 2^(B−1+g), by search.
           const sum = h.re.reduce((a, v, i) => a + BigInt(Math.abs(v)) + BigInt(Math.abs(h.im[i]!)), 0n);
-          expect(g.absoluteSum).toBe(sum);
+          expect(g.absoluteSum).toBe(sum.toString());
           if (sum > 0n) {
             let growth = -(coefBits + 2);
             while (sum > 2n ** BigInt(coefBits - 1 + growth + 64) / 2n ** 64n) growth++;
