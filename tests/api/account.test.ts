@@ -1,9 +1,8 @@
 import request from "supertest";
 import { describe, expect, it } from "vitest";
-import { expectError, failOnConsoleError, signedIn, useApiTestDatabase } from "./helpers";
+import { expectError, signedIn, useApiTestDatabase } from "./helpers";
 
 const t = useApiTestDatabase();
-failOnConsoleError();
 
 describe("POST /api/account/password", () => {
   it("refuses a wrong current password with a field error on currentPassword", async () => {

@@ -1,10 +1,9 @@
 import request from "supertest";
 import { describe, expect, it } from "vitest";
 import { CreatedUserSchema, UserSchema } from "../../shared/schemas/users";
-import { expectError, failOnConsoleError, signedIn, useApiTestDatabase } from "./helpers";
+import { expectError, signedIn, useApiTestDatabase } from "./helpers";
 
 const t = useApiTestDatabase();
-failOnConsoleError();
 
 const newUser = (username: string) => ({
   username,

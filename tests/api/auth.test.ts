@@ -1,17 +1,9 @@
 import request from "supertest";
 import { describe, expect, it } from "vitest";
 import { SessionUserSchema } from "../../shared/schemas/auth";
-import {
-  buildApp,
-  expectError,
-  failOnConsoleError,
-  sessionCookie,
-  signedIn,
-  useApiTestDatabase,
-} from "./helpers";
+import { buildApp, expectError, sessionCookie, signedIn, useApiTestDatabase } from "./helpers";
 
 const t = useApiTestDatabase();
-failOnConsoleError();
 
 const BAD = "User name or password is incorrect";
 

@@ -2,10 +2,9 @@ import request from "supertest";
 import { describe, expect, it } from "vitest";
 import { HealthSchema } from "../../shared/schemas/health";
 import { openDatabase } from "../../server/db/client";
-import { buildApp, expectError, failOnConsoleError, useApiTestDatabase } from "./helpers";
+import { buildApp, expectError, useApiTestDatabase } from "./helpers";
 
 const t = useApiTestDatabase();
-failOnConsoleError();
 
 describe("GET /api/health", () => {
   it("reports the database as reachable, without a session", async () => {

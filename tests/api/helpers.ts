@@ -32,8 +32,12 @@ export interface ApiTestContext {
   admin(): Promise<Agent>;
 }
 
-/** Per test file: a fresh database cloned from the demo-seeded template, and one app over it. */
+/**
+ * Per test file: a fresh database cloned from the demo-seeded template, one app over it, and a check
+ * that no test calls console.error unexpectedly.
+ */
 export function useApiTestDatabase(): ApiTestContext {
+  failOnConsoleError();
   let adminAgent: Promise<Agent> | undefined;
   let created: Awaited<ReturnType<typeof createTestDatabase>> | undefined;
   let database: Database | undefined;

@@ -1,9 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { HomeSchema, ProjectDetailSchema, ProjectSchema } from "../../shared/schemas/projects";
-import { expectError, failOnConsoleError, signedIn, useApiTestDatabase } from "./helpers";
+import { expectError, signedIn, useApiTestDatabase } from "./helpers";
 
 const t = useApiTestDatabase();
-failOnConsoleError();
 
 async function projectIds(): Promise<Record<string, number>> {
   const admin = await t.admin();

@@ -1,17 +1,9 @@
 import request from "supertest";
 import { describe, expect, it } from "vitest";
-import {
-  buildApp,
-  expectError,
-  failOnConsoleError,
-  sessionCookie,
-  signedIn,
-  useApiTestDatabase,
-} from "./helpers";
+import { buildApp, expectError, sessionCookie, signedIn, useApiTestDatabase } from "./helpers";
 import { openDatabase } from "../../server/db/client";
 
 const t = useApiTestDatabase();
-failOnConsoleError();
 
 async function userId(username: string): Promise<number> {
   const admin = await t.admin();
