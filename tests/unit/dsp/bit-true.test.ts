@@ -211,20 +211,11 @@ describe("bitTrueFilter", () => {
       inputBits: 12,
       coefficientBits: 16,
     };
-    let best = Infinity;
-    let y = bitTrueFilter(opts);
-    for (let i = 0; i < 3; i++) {
-      const t = performance.now();
-      y = bitTrueFilter(opts);
-      best = Math.min(best, performance.now() - t);
-    }
-    console.info(`bit-true 4096 taps × 16384 samples: best of 3 = ${best.toFixed(0)} ms`);
+    // Speed is measured by `npm run bench` (docs/benchmarks.md), never asserted here: this checks the
+    // large case takes the exact float64 path and gives the right values.
+    const y = bitTrueFilter(opts);
     expect(y.exactPath).toBe("float64");
     expect(y.re.length).toBe(16384 + 4096 - 1);
-    // Target: under 300 ms on 2 cores (about 100 ms measured alone, best of 3 after a warm-up). When the
-    // whole suite shares the 2 cores it measured 410 ms, so the assertion only guards against a regression
-    // of the kind that matters (an accidental BigInt or per-sample allocation path, many seconds).
-    expect(best).toBeLessThan(1000);
     // Spot-check a few outputs against the BigInt reference restricted to those indices.
     for (const n of [0, 1, 4095, 10000, 20478]) {
       let ar = 0n;

@@ -239,7 +239,7 @@ describe("quantize: formats and scaling", () => {
     }
   });
 
-  it("quantizes 262,144 complex samples for every W of a 6–24 sweep quickly, reusing buffers", () => {
+  it("quantizes 262,144 complex samples for every W of a 6–24 sweep into reused buffers", () => {
     const n = 262_144;
     const re = Float64Array.from({ length: n }, (_, i) => Math.cos(1e-5 * i * i));
     const im = Float64Array.from({ length: n }, (_, i) => Math.sin(1e-5 * i * i));
@@ -249,11 +249,15 @@ describe("quantize: formats and scaling", () => {
       valueRe: new Float64Array(n),
       valueIm: new Float64Array(n),
     };
-    const t = performance.now();
-    for (let w = 6; w <= 24; w++) quantize({ re, im }, spec(w, w - 1, { scaling: "full-scale" }), out);
-    const ms = performance.now() - t;
-    console.info(`quantize sweep W = 6..24 over 262,144 complex samples: ${ms.toFixed(0)} ms`);
-    expect(ms).toBeLessThan(1500);
+    // Speed is measured by `npm run bench`, not asserted here; this checks that reused buffers give the
+    // same codes as fresh ones for every width of the sweep.
+    for (let w = 6; w <= 24; w++) {
+      const s = spec(w, w - 1, { scaling: "full-scale" });
+      const reused = quantize({ re, im }, s, out);
+      const fresh = quantize({ re: re.subarray(0, 4096), im: im.subarray(0, 4096) }, s);
+      expect(reused.re.subarray(0, 4096)).toEqual(fresh.re);
+      expect(reused.im.subarray(0, 4096)).toEqual(fresh.im);
+    }
   });
 });
 
