@@ -18,6 +18,9 @@ import type { RouteContext } from "./routes/context";
 import { healthRoutes } from "./routes/health";
 import { homeRoutes } from "./routes/home";
 import { projectRoutes } from "./routes/projects";
+import { designRoutes, projectDesignRoutes } from "./routes/designs";
+import { revisionRoutes } from "./routes/revisions";
+import { projectUploadRoutes, uploadRoutes } from "./routes/uploads";
 
 /** The session cookie's name (shared with the client's tests). */
 export const SESSION_COOKIE = "tapwright.sid";
@@ -136,6 +139,11 @@ export function createApp(deps: AppDeps): CreatedApp {
   api.use("/auth", authRoutes(ctx));
   api.use("/account", accountRoutes(ctx));
   api.use("/projects", projectRoutes(ctx));
+  api.use("/projects/:projectId/designs", projectDesignRoutes(ctx));
+  api.use("/projects/:projectId/uploads", projectUploadRoutes(ctx));
+  api.use("/designs", designRoutes(ctx));
+  api.use("/revisions", revisionRoutes(ctx));
+  api.use("/uploads", uploadRoutes(ctx));
   api.use("/admin/users", adminUserRoutes(ctx));
   api.use("/home", homeRoutes(ctx));
   api.use(apiNotFound);

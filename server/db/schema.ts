@@ -2,3 +2,7 @@
 // reviews, releases and audit events as new files re-exported here (drizzle.config.ts reads this file).
 export * from "./schema/users";
 export * from "./schema/projects";
+export * from "./schema/designs";
+export * from "./schema/analyses";
+export * from "./schema/audit";
+export * from "./schema/mail";
