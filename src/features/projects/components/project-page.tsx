@@ -3,16 +3,20 @@ import { RoleBadges } from "@/components/role-badges";
 import { PageHeader, Section } from "@/components/ui/page";
 import { EmptyState, ErrorState, Skeleton, TableSkeleton } from "@/components/ui/states";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
+import { DesignsTable, NewDesignLink } from "@/features/designs/components/designs-table";
+import { useMe } from "@/features/auth/api/get-me";
 import { ApiError } from "@/lib/api-client";
 import { formatDate } from "@/lib/format";
 import { useProject } from "../api/get-project";
 
-/** /projects/:id: header, designs (arrive with issue 4) and members. */
+/** /projects/:id: header, the designs table and members. */
 export function ProjectPage() {
   const { id } = useParams();
   const projectId = Number(id);
   const valid = Number.isInteger(projectId) && projectId > 0;
   const query = useProject(valid ? projectId : -1);
+  // Creating needs the author role (the server also requires membership, which seeing the page implies).
+  const canCreate = useMe().data?.roles.includes("author") ?? false;
   if (!valid || (query.error instanceof ApiError && query.error.status === 404)) {
     return (
       <>
@@ -46,6 +50,7 @@ export function ProjectPage() {
       </nav>
       <PageHeader
         title={project.name}
+        action={canCreate ? <NewDesignLink projectId={project.id} /> : undefined}
         subtitle={
           <>
             <p className="max-w-3xl">{project.description || "No description."}</p>
@@ -57,9 +62,7 @@ export function ProjectPage() {
         }
       />
       <Section title="Designs">
-        <EmptyState title="No designs yet">
-          Waveform and filter designs for this project will be listed here once design authoring is available.
-        </EmptyState>
+        <DesignsTable projectId={project.id} canCreate={canCreate} />
       </Section>
       <Section title={`Members (${members.length})`}>
         {members.length === 0 ? (
