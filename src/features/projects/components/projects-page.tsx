@@ -1,4 +1,5 @@
-import { useSearchParams } from "react-router-dom";
+import { useEffect, useState } from "react";
+import { useNavigationType, useSearchParams } from "react-router-dom";
 import { Input } from "@/components/ui/input";
 import { PageHeader } from "@/components/ui/page";
 import { EmptyState, ErrorState, TableSkeleton } from "@/components/ui/states";
@@ -9,7 +10,15 @@ import { ProjectsTable } from "./projects-table";
 export function ProjectsPage() {
   const projects = useProjects();
   const [params, setParams] = useSearchParams();
-  const q = params.get("q") ?? "";
+  const urlQ = params.get("q") ?? "";
+  // The field keeps its own state: the URL update is a router transition, and a controlled value read
+  // back from it drops keystrokes when someone types fast.
+  const [q, setQ] = useState(urlQ);
+  const navigationType = useNavigationType();
+  useEffect(() => {
+    // Our own writes are REPLACE navigations; follow the URL only for back/forward and links.
+    if (navigationType !== "REPLACE") setQ(urlQ);
+  }, [urlQ, navigationType]);
   const needle = q.trim().toLowerCase();
   const rows = (projects.data ?? []).filter(
     (p) => !needle || p.name.toLowerCase().includes(needle) || p.slug.includes(needle),
@@ -32,6 +41,7 @@ export function ProjectsPage() {
           className="max-w-xs"
           value={q}
           onChange={(e) => {
+            setQ(e.target.value);
             const next = new URLSearchParams(params);
             if (e.target.value) next.set("q", e.target.value);
             else next.delete("q");
