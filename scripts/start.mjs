@@ -191,6 +191,8 @@ if (DEV) {
       NODE_ENV: process.env.NODE_ENV ?? "production",
       LOG_LEVEL: process.env.LOG_LEVEL ?? "warn",
       CLIENT_DIST: process.env.CLIENT_DIST ?? "dist/client",
+      // A local run keeps mail on this host (the sink) unless a real SMTP server is configured.
+      ...(process.env.SMTP_HOST ? {} : { MAIL_SINK: process.env.MAIL_SINK ?? "on" }),
     },
   });
   child.on("exit", (code) => {
