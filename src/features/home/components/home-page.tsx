@@ -32,7 +32,7 @@ function StatStrip({ home }: { home: Home }) {
   return (
     <dl
       aria-label="Summary"
-      className="mb-6 flex flex-wrap divide-x divide-paper-300 rounded border border-paper-300 bg-paper-50"
+      className="mb-6 flex w-fit max-w-full flex-wrap divide-x divide-paper-300 rounded border border-paper-300 bg-paper-50"
     >
       <Stat label="My projects">{formatCount(stats.projectCount)}</Stat>
       {stats.userCount !== undefined && <Stat label="Users">{formatCount(stats.userCount)}</Stat>}
