@@ -2,7 +2,7 @@ import { lazy, Suspense } from "react";
 import { Skeleton } from "@/components/ui/states";
 import type { SignalPlotProps } from "./types";
 
-export type { PlotTrace, SignalPlotProps, TraceTone, XYData } from "./types";
+export type { PlotMarker, PlotTrace, SignalPlotProps, TraceTone, XYData } from "./types";
 
 // uPlot and its CSS load only when a page first draws a plot.
 const SignalPlotImpl = lazy(() => import("./signal-plot"));

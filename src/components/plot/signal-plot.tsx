@@ -33,12 +33,34 @@ function download(href: string, fileName: string) {
   a.remove();
 }
 
+/** Dashed vertical lines with labels, drawn over the series (canvas pixels include the device ratio). */
+function drawMarkers(u: uPlot, markers: SignalPlotProps["markers"]) {
+  if (!markers?.length) return;
+  const { ctx, bbox } = u;
+  ctx.save();
+  ctx.strokeStyle = TONES.warn;
+  ctx.fillStyle = TONES.warn;
+  ctx.lineWidth = uPlot.pxRatio;
+  ctx.setLineDash([4 * uPlot.pxRatio, 3 * uPlot.pxRatio]);
+  ctx.font = `${11 * uPlot.pxRatio}px "JetBrains Mono", ui-monospace, monospace`;
+  for (const m of markers) {
+    const px = u.valToPos(m.x, "x", true);
+    if (px < bbox.left || px > bbox.left + bbox.width) continue;
+    ctx.beginPath();
+    ctx.moveTo(px, bbox.top);
+    ctx.lineTo(px, bbox.top + bbox.height);
+    ctx.stroke();
+    ctx.fillText(m.label, px + 4 * uPlot.pxRatio, bbox.top + 12 * uPlot.pxRatio);
+  }
+  ctx.restore();
+}
+
 /**
  * One uPlot chart: drag to zoom (x), Shift+drag or the arrow keys to pan, wheel to zoom around the cursor,
  * Reset, cursor read-out in the legend, PNG and CSV export. With `reduce` it draws what that returns for the
  * range in view (e.g. a min/max envelope), recomputed at each zoom.
  */
-export default function SignalPlot({ title, x, series, yAxis, fileName, height = 220, reduce, reduceNote }: SignalPlotProps) {
+export default function SignalPlot({ title, x, series, yAxis, fileName, height = 220, reduce, reduceNote, markers }: SignalPlotProps) {
   const holder = useRef<HTMLDivElement>(null);
   const plotRef = useRef<uPlot | null>(null);
   const [zoomed, setZoomed] = useState(false);
@@ -82,6 +104,7 @@ export default function SignalPlot({ title, x, series, yAxis, fileName, height =
       },
       legend: { live: true },
       hooks: {
+        draw: [(u) => drawMarkers(u, markers)],
         setScale: [
           (u, key) => {
             if (key !== "x") return;
@@ -133,7 +156,7 @@ export default function SignalPlot({ title, x, series, yAxis, fileName, height =
       u.destroy();
       plotRef.current = null;
     };
-  }, [full, reduce, height, series, x.label, x.unit, xMax, xMin, yAxis.label, yAxis.max, yAxis.min, yAxis.unit]);
+  }, [full, reduce, height, markers, series, x.label, x.unit, xMax, xMin, yAxis.label, yAxis.max, yAxis.min, yAxis.unit]);
 
   const pan = (direction: -1 | 1) => {
     const u = plotRef.current;

@@ -34,4 +34,12 @@ export interface SignalPlotProps {
   reduce?: (xMin: number, xMax: number, columns: number) => XYData;
   /** Shown beside the caption when `reduce` is in use. */
   reduceNote?: string;
+  /** Vertical marker lines with a short label at the top (e.g. the recommended word length). */
+  markers?: PlotMarker[];
+}
+
+/** A vertical line at `x`, drawn in the warn tone with its label. */
+export interface PlotMarker {
+  x: number;
+  label: string;
 }
