@@ -10,12 +10,18 @@ export const Q15 = { wordLength: 16, fractionLength: 15 };
 
 type Agent = Awaited<ReturnType<typeof signedIn>>;
 
+// Ids by slug; each test file has its own database and its own copy of this module.
+const projectIds = new Map<string, number>();
+
 /** Project id by slug, as the admin sees them. */
 export async function projectId(app: Express, slug: string): Promise<number> {
+  const known = projectIds.get(slug);
+  if (known !== undefined) return known;
   const admin = await signedIn(app, "admin");
   const res = await admin.get("/api/projects");
   const p = (res.body.projects as { slug: string; id: number }[]).find((x) => x.slug === slug);
   if (!p) throw new Error(`no project ${slug}`);
+  projectIds.set(slug, p.id);
   return p.id;
 }
 
