@@ -1,8 +1,7 @@
-// Pure checks of the client's number formatting and of the palette's contrast. They need no browser;
-// they sit here only because the client engineer owns tests/e2e (better home: tests/unit/client/).
+// Pure checks of the client's number formatting and of the palette's contrast (no browser needed).
 import { describe, expect, it } from "vitest";
-import { amplitudeToDb, formatCount, formatDb, formatDuration, formatEng, powerToDb } from "../../src/lib/format";
-import config from "../../tailwind.config";
+import { amplitudeToDb, formatCount, formatDb, formatDuration, formatEng, powerToDb } from "@/lib/format";
+import config from "../../../tailwind.config";
 
 describe("formatDb", () => {
   it("shows Barker peak sidelobe levels as Richards prints them (Richards, Fundamentals of Radar Signal Processing, 2nd ed., 2014, Table 4.1)", () => {
