@@ -1,0 +1,45 @@
+/**
+ * Revision content + its stored tables → the DSP core's analysis spec. Generator sources stay as parameters
+ * (the analysis regenerates them bit for bit); uploads become explicit `samples` (waveform) or `taps` (filter),
+ * read from the revision's stored tables so the analysis sees exactly what was frozen at submission.
+ */
+import type { AnalysisSpecInput } from "./schemas/analysis";
+import type { RevisionContent, TableRole } from "./schemas/designs";
+
+/** One stored table's values. */
+export interface TableValues {
+  role: TableRole;
+  re: ArrayLike<number>;
+  im: ArrayLike<number>;
+}
+
+function values(tables: TableValues[], role: TableRole): { re: number[]; im?: number[] } {
+  const t = tables.find((x) => x.role === role);
+  if (!t) throw new RangeError(`the revision has no ${role} table`);
+  if (t.re.length !== t.im.length) throw new RangeError(`${role}: re has ${t.re.length} values, im ${t.im.length}`);
+  const re = Array.from(t.re);
+  const im = Array.from(t.im);
+  // A real table is passed without im, as the spec expects for real samples.
+  return im.some((v) => v !== 0) ? { re, im } : { re };
+}
+
+/** The AnalysisSpec input for a revision (uploads replaced by their values). */
+export function toAnalysisSpec(content: RevisionContent, tables: TableValues[]): AnalysisSpecInput {
+  if (content.kind === "waveform") {
+    const { tx, ...rest } = content;
+    if (tx.kind !== "upload") return { ...rest, tx };
+    return { ...rest, tx: { kind: "samples", sampleRateHz: tx.sampleRateHz, ...values(tables, "tx") } };
+  }
+  const { fir, ...rest } = content;
+  if (fir.kind !== "upload") return { ...rest, fir };
+  return {
+    ...rest,
+    fir: {
+      kind: "taps",
+      sampleRateHz: fir.sampleRateHz,
+      ...values(tables, "fir"),
+      passbands: fir.passbands,
+      stopbands: fir.stopbands,
+    },
+  };
+}
