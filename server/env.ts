@@ -13,6 +13,9 @@ function packageVersion(): string {
   }
 }
 
+// "true"/"false"/"1"/"0" as environment variables spell booleans.
+const flag = z.enum(["true", "false", "1", "0"]).transform((v) => v === "true" || v === "1");
+
 const EnvSchema = z
   .object({
     NODE_ENV: z.enum(["development", "test", "production"]).default("development"),
@@ -23,6 +26,23 @@ const EnvSchema = z
     LOG_LEVEL: z.enum(["fatal", "error", "warn", "info", "debug", "trace", "silent"]).default("info"),
     CLIENT_DIST: z.string().default("dist/client"),
     TAPWRIGHT_VERSION: z.string().default(packageVersion()),
+    // Mail (issue 6). Without SMTP_HOST, mail goes to the local sink on 127.0.0.1:MAIL_SINK_PORT.
+    PUBLIC_URL: z.url().default("http://127.0.0.1:3000"),
+    SMTP_HOST: z.string().min(1).optional(),
+    SMTP_PORT: z.coerce.number().int().min(1).max(65535).optional(),
+    SMTP_SECURE: flag.default(false),
+    SMTP_USER: z.string().min(1).optional(),
+    SMTP_PASS: z.string().min(1).optional(),
+    MAIL_FROM: z.string().min(3).default("Tapwright <tapwright@localhost>"),
+    MAIL_SINK: z.enum(["on", "off"]).optional(),
+    // Default 2525; 0 (a free port) under NODE_ENV=test so parallel runs never collide.
+    MAIL_SINK_PORT: z.coerce.number().int().min(0).max(65535).optional(),
+    MAIL_DISPATCH: z.enum(["on", "off"]).default("on"),
+    MAIL_MAX_ATTEMPTS: z.coerce.number().int().min(1).max(50).default(8),
+  })
+  .refine((e) => e.NODE_ENV !== "production" || e.SMTP_HOST !== undefined || e.MAIL_SINK === "on", {
+    path: ["SMTP_HOST"],
+    message: "SMTP_HOST is required in production (or set MAIL_SINK=on to keep mail on this host)",
   })
   .refine((e) => e.NODE_ENV !== "production" || e.SESSION_SECRET !== undefined, {
     path: ["SESSION_SECRET"],
