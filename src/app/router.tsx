@@ -1,4 +1,8 @@
 import { createBrowserRouter } from "react-router-dom";
+import { ReportPage } from "@/features/analysis/components/report-page";
+import { DesignPage } from "@/features/designs/components/design-page";
+import { RevisionPage } from "@/features/revisions/components/revision-page";
+import { NewDesignPage } from "@/features/designs/components/new-design-page";
 import { ProjectPage } from "@/features/projects/components/project-page";
 import { ProjectsPage } from "@/features/projects/components/projects-page";
 import { NotFoundRoute } from "./routes/not-found";
@@ -15,6 +19,10 @@ export const router = createBrowserRouter([
       { index: true, element: <HomeRoute /> },
       { path: "projects", element: <ProjectsPage /> },
       { path: "projects/:id", element: <ProjectPage /> },
+      { path: "projects/:id/designs/new", element: <NewDesignPage /> },
+      { path: "designs/:id", element: <DesignPage /> },
+      { path: "revisions/:id", element: <RevisionPage /> },
+      { path: "revisions/:id/report", element: <ReportPage /> },
       { path: "account", element: <AccountRoute /> },
       { path: "admin/users", element: <AdminUsersRoute /> },
       { path: "*", element: <NotFoundRoute /> },

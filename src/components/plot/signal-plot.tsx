@@ -33,6 +33,11 @@ function download(href: string, fileName: string) {
   a.remove();
 }
 
+/** NaN marks "no value here" (e.g. a mask outside its band); uPlot draws a gap only for null. */
+function gaps(y: Float64Array): Float64Array | (number | null)[] {
+  return y.some(Number.isNaN) ? Array.from(y, (v) => (Number.isNaN(v) ? null : v)) : y;
+}
+
 /** Dashed vertical lines with labels, drawn over the series (canvas pixels include the device ratio). */
 function drawMarkers(u: uPlot, markers: SignalPlotProps["markers"]) {
   if (!markers?.length) return;
@@ -75,7 +80,7 @@ export default function SignalPlot({ title, x, series, yAxis, fileName, height =
     const view = (lo: number, hi: number, cols: number): uPlot.AlignedData => {
       const d = reduce ? reduce(lo, hi, cols) : full;
       // uPlot accepts typed arrays (STACK.md); its types only name plain arrays.
-      return [d.x, ...d.ys] as unknown as uPlot.AlignedData;
+      return [d.x, ...d.ys.map(gaps)] as unknown as uPlot.AlignedData;
     };
     let panFrom: { px: number; min: number; max: number } | null = null;
     const opts: uPlot.Options = {
@@ -156,7 +161,7 @@ export default function SignalPlot({ title, x, series, yAxis, fileName, height =
       u.destroy();
       plotRef.current = null;
     };
-  }, [full, reduce, height, markers, series, x.label, x.unit, xMax, xMin, yAxis.label, yAxis.max, yAxis.min, yAxis.unit]);
+  }, [full, reduce, markers, height, series, x.label, x.unit, xMax, xMin, yAxis.label, yAxis.max, yAxis.min, yAxis.unit]);
 
   const pan = (direction: -1 | 1) => {
     const u = plotRef.current;

@@ -17,7 +17,7 @@ export interface PlotTrace {
   values: Float64Array;
 }
 
-/** What SignalPlot draws. */
+/** What SignalPlot draws. NaN in a series is a gap (not drawn, not joined across). */
 export interface SignalPlotProps {
   /** Caption, accessible name and control labels. */
   title: string;

@@ -1,4 +1,5 @@
 import { zodResolver } from "@hookform/resolvers/zod";
+import { useEffect } from "react";
 import { useForm } from "react-hook-form";
 import { z } from "zod";
 import { FixedPointSpecSchema } from "@shared/schemas/analysis";
@@ -76,7 +77,15 @@ function ReadOnly({ specs }: { specs: Array<[string, Spec]> }) {
   );
 }
 
-function Editor({ revisionId, content }: { revisionId: number; content: RevisionContent }) {
+interface SectionProps {
+  revisionId: number;
+  content: RevisionContent;
+  editable: boolean;
+  /** Told when the form gains or loses unsaved edits. */
+  onDirtyChange?: (dirty: boolean) => void;
+}
+
+function Editor({ revisionId, content, onDirtyChange }: Omit<SectionProps, "editable">) {
   const update = useUpdateRevision(revisionId);
   const form = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(FormSchema),
@@ -87,6 +96,7 @@ function Editor({ revisionId, content }: { revisionId: number; content: Revision
   const roles = Object.keys(content.fixedPoint);
   const values = watch("fixedPoint");
   const fieldError = (role: string, key: keyof Spec) => formState.errors.fixedPoint?.[role]?.[key]?.message;
+  useEffect(() => onDirtyChange?.(formState.isDirty), [formState.isDirty, onDirtyChange]);
   const onSubmit = handleSubmit(async ({ fixedPoint }) => {
     try {
       const detail = await update.mutateAsync({ ...content, fixedPoint } as RevisionContent);
@@ -184,7 +194,7 @@ function Editor({ revisionId, content }: { revisionId: number; content: Revision
 }
 
 /** Word length, fraction length and modes per table: a form on an editable draft, a table otherwise. */
-export function FixedPointSection({ revisionId, content, editable }: { revisionId: number; content: RevisionContent; editable: boolean }) {
-  const specs = Object.entries(content.fixedPoint) as Array<[string, Spec]>;
-  return editable ? <Editor revisionId={revisionId} content={content} /> : <ReadOnly specs={specs} />;
+export function FixedPointSection({ editable, ...props }: SectionProps) {
+  const specs = Object.entries(props.content.fixedPoint) as Array<[string, Spec]>;
+  return editable ? <Editor {...props} /> : <ReadOnly specs={specs} />;
 }

@@ -1,4 +1,5 @@
 import { zodResolver } from "@hookform/resolvers/zod";
+import { useEffect } from "react";
 import { useForm } from "react-hook-form";
 import { z } from "zod";
 import { AcceptanceLimitsSchema } from "@shared/schemas/analysis";
@@ -57,13 +58,22 @@ function ReadOnly({ content }: { content: RevisionContent }) {
   );
 }
 
-function Editor({ revisionId, content }: { revisionId: number; content: RevisionContent }) {
+interface SectionProps {
+  revisionId: number;
+  content: RevisionContent;
+  editable: boolean;
+  /** Told when the form gains or loses unsaved edits. */
+  onDirtyChange?: (dirty: boolean) => void;
+}
+
+function Editor({ revisionId, content, onDirtyChange }: Omit<SectionProps, "editable">) {
   const update = useUpdateRevision(revisionId);
   const { register, handleSubmit, formState, setError, reset } = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(FormSchema),
     mode: "onChange",
     defaultValues: { limits: content.limits },
   });
+  useEffect(() => onDirtyChange?.(formState.isDirty), [formState.isDirty, onDirtyChange]);
   const onSubmit = handleSubmit(async ({ limits }) => {
     try {
       // Limits of the other kind are kept as they were: this form only shows the ones that apply.
@@ -112,6 +122,6 @@ function Editor({ revisionId, content }: { revisionId: number; content: Revision
 }
 
 /** The acceptance limits the analysis will judge against: a form on an editable draft, a table otherwise. */
-export function LimitsSection({ revisionId, content, editable }: { revisionId: number; content: RevisionContent; editable: boolean }) {
-  return editable ? <Editor revisionId={revisionId} content={content} /> : <ReadOnly content={content} />;
+export function LimitsSection({ editable, ...props }: SectionProps) {
+  return editable ? <Editor {...props} /> : <ReadOnly content={props.content} />;
 }
