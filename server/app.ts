@@ -14,6 +14,7 @@ import { apiNotFound, errorHandler } from "./http/errors";
 import { accountRoutes } from "./routes/account";
 import { adminUserRoutes } from "./routes/admin-users";
 import { analysisRoutes } from "./routes/analyses";
+import { analysisRoutes } from "./routes/analyses";
 import { auditCsvRoutes, auditRoutes } from "./routes/audit";
 import { mailboxRoutes } from "./routes/mailbox";
 import { authRoutes } from "./routes/auth";
@@ -146,6 +147,7 @@ export function createApp(deps: AppDeps): CreatedApp {
   api.use("/projects/:projectId/uploads", projectUploadRoutes(ctx));
   api.use("/designs", designRoutes(ctx));
   api.use("/revisions", revisionRoutes(ctx));
+  api.use("/revisions", analysisRoutes(ctx));
   api.use("/revisions", analysisRoutes(ctx));
   api.use("/uploads", uploadRoutes(ctx));
   api.use("/admin/users", adminUserRoutes(ctx));

@@ -6,8 +6,8 @@
  */
 import { AnalysisSpecSchema, type AnalysisSpec, type FirSource, type WaveformSource } from "../schemas/analysis";
 import { accumulatorGrowth } from "./accumulator";
-import { convolutionSize, multiplySpectra, spectrumOf } from "./compression";
-import { dopplerCut, type DopplerCut } from "./doppler";
+import { compress, convolutionSize, multiplySpectra, powerOf, spectrumOf } from "./compression";
+import { applyDoppler, dopplerCut, type DopplerCut } from "./doppler";
 import { designFir } from "./fir-design";
 import { firMagnitude, firMetrics, type Band, type FirMetrics } from "./fir-response";
 import { linearFm } from "./lfm";
@@ -62,6 +62,13 @@ export interface PlotTrace {
   fixedDb: number[];
 }
 
+/** Coefficient error in LSB of the table's format, (ĥ − g·h)·2^F, I and Q as min/max envelopes. */
+export interface LsbTrace {
+  x: number[];
+  re: number[];
+  im: number[];
+}
+
 /** The JSON report. */
 export interface AnalysisReport {
   version: number;
@@ -81,6 +88,10 @@ export interface AnalysisReport {
     smallestPassingWordLength: number | null;
   } | null;
   plots: Record<string, PlotTrace>;
+  /** Per table role: quantization error in LSB against the coefficient index. */
+  coefficientErrorLsb?: Record<string, LsbTrace>;
+  /** Filters: the bands the limits are judged over (Hz), for drawing the masks. */
+  firBands?: { passbands: Band[]; stopbands: Band[] };
   definitions: Record<string, string>;
 }
 
@@ -139,6 +150,37 @@ function fixedValues(q: QuantizedTable): ComplexSignal {
     im[i] = q.valueIm[i]! / q.gain;
   }
   return { re, im };
+}
+
+/** (ĥ − g·h)·2^F per coefficient, decimated to a min/max envelope. */
+function lsbTrace(float: ComplexSignal, q: QuantizedTable): LsbTrace {
+  const lsb = 2 ** q.spec.fractionLength;
+  const n = float.re.length;
+  const re = new Float64Array(n);
+  const im = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    re[i] = (q.valueRe[i]! - q.gain * float.re[i]!) * lsb;
+    im[i] = (q.valueIm[i]! - q.gain * float.im[i]!) * lsb;
+  }
+  const t = envelope(re, im, 0, n, PLOT_POINTS, (i) => i, (v) => round(v, 4));
+  return { x: t.x, re: t.floatDb, im: t.fixedDb };
+}
+
+/** |S(f)|² of two interleaved spectra, centred (negative frequencies first), x in Hz, dB re the float peak. */
+function spectrumTrace(a: Float64Array, b: Float64Array, fs: number): PlotTrace {
+  const m = a.length / 2;
+  const pa = powerOf(a);
+  const pb = powerOf(b);
+  const sa = new Float64Array(m);
+  const sb = new Float64Array(m);
+  const half = Math.floor(m / 2);
+  for (let k = 0; k < m; k++) {
+    sa[k] = pa[(k + m - half) % m]!;
+    sb[k] = pb[(k + m - half) % m]!;
+  }
+  let ref = 0;
+  for (let k = 0; k < m; k++) ref = Math.max(ref, sa[k]!);
+  return envelope(sa, sb, 0, m, PLOT_POINTS, (k) => ((k - half) * fs) / m, (p) => toDb(p, ref > 0 ? ref : 1));
 }
 
 function tableReport(role: TableReport["role"], float: ComplexSignal, q: QuantizedTable, inputBits: number | null): TableReport {
@@ -317,7 +359,9 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
   const plots: Record<string, PlotTrace> = {
     compressed: envelope(fl.power, fx.power, 0, span, PLOT_POINTS, xOf, dbOf),
     mainlobe: envelope(fl.power, fx.power, Math.max(0, zc - zoomHalf), Math.min(span, zc + zoomHalf + 1), 4 * zoomHalf + 4, xOf, dbOf),
+    spectrum: spectrumTrace(sSpec, sqSpec, fs),
   };
+  const coefficientErrorLsb = { tx: lsbTrace(s, qs), rx: lsbTrace(h, qh) };
 
   let doppler: AnalysisReport["doppler"] = null;
   if (spec.dopplerHz !== undefined) {
@@ -327,6 +371,10 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
       float: dopplerCut(s, h, { ...base, zeroDopplerPeak: fl.metrics.peakAmplitude }),
       fixed: dopplerCut(sq, hq, { ...base, zeroDopplerPeak: fx.metrics.peakAmplitude }),
     };
+    // The cut itself near the target, float and fixed, dB re the zero-Doppler float peak.
+    const echo = (x: ComplexSignal, f: ComplexSignal) => powerOf(compress(applyDoppler(x, base.dopplerHz, fs), f, { interpolation: u, size }).y);
+    const cutZoom = Math.min(Math.ceil(16 * lobe * u), 2048);
+    plots.doppler = envelope(echo(s, h), echo(sq, hq), Math.max(0, zc - cutZoom), Math.min(span, zc + cutZoom + 1), PLOT_POINTS, xOf, dbOf);
   }
 
   let sweep: AnalysisReport["sweep"] = null;
@@ -375,6 +423,7 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
     pass: limits.every((c) => c.pass),
     sweep,
     plots,
+    coefficientErrorLsb,
     definitions: DEFINITIONS,
   };
 }
@@ -431,6 +480,8 @@ function analyzeFilter(spec: FilterSpec, progress: ProgressCallback): AnalysisRe
     pass: limits.every((c) => c.pass),
     sweep,
     plots,
+    coefficientErrorLsb: { fir: lsbTrace(taps, q) },
+    firBands: { passbands, stopbands },
     definitions: DEFINITIONS,
   };
 }
