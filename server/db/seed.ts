@@ -3,6 +3,7 @@ import type { Role } from "../../shared/schemas/auth";
 import { hashPassword } from "../auth/passwords";
 import type { Db } from "./client";
 import { projectMembers, projects, userRoles, users } from "./schema";
+import { seedDemoDesigns } from "./seed-designs";
 
 /** A demo account: invented people, development only. */
 export interface DemoAccount {
@@ -126,4 +127,5 @@ export async function seedDemo(db: Db): Promise<void> {
       .values(memberIds.map((userId) => ({ projectId: row.id, userId })))
       .onConflictDoNothing();
   }
+  await seedDemoDesigns(db);
 }

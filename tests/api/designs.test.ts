@@ -248,3 +248,30 @@ describe("who may author", () => {
     expectError(await request(t.app).get(`/api/projects/${pid}/designs`), 401, "unauthenticated");
   });
 });
+
+describe("demo designs", () => {
+  it("are seeded once into coastwatch-s, owned by the demo author, with their tables", async () => {
+    const { seedDemo } = await import("../../server/db/seed");
+    const before = await countRows(t.database.pool, "designs");
+    await seedDemo(t.database.db); // a second run adds nothing
+    expect(await countRows(t.database.pool, "designs")).toBe(before);
+    const author = await signedIn(t.app, "author");
+    const pid = await projectId(t.app, "coastwatch-s");
+    const list = DesignListSchema.parse((await author.get(`/api/projects/${pid}/designs`)).body).designs;
+    const byName = new Map(list.map((d) => [d.name, d]));
+    // T·fs: 50 µs × 12.5 MHz = 625; 13 chips × 1; 100 µs × 6.25 MHz = 625.
+    const expected: [string, string, number][] = [
+      ["Long-pulse LFM, 10 MHz / 50 µs, Taylor receive", "tx", 625],
+      ["Short pulse Barker-13", "tx", 13],
+      ["Low-sidelobe NLFM", "tx", 625],
+    ];
+    for (const [name, role, length] of expected) {
+      const d = byName.get(name);
+      expect(d?.owner.displayName, name).toBe("Ilse Marrow");
+      const r = RevisionDetailSchema.parse((await author.get(`/api/revisions/${d!.latestRevision!.id}`)).body);
+      expect(r.tables.find((x) => x.role === role)?.length, name).toBe(length);
+    }
+    const fir = byName.get("4:1 decimation FIR");
+    expect(fir?.kind).toBe("filter");
+  });
+});
