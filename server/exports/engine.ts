@@ -1,0 +1,153 @@
+/**
+ * The export template engine: Liquid (liquidjs), sandboxed and logic-light. Templates cannot run
+ * JavaScript, read files (include/render/layout are refused), reach prototype properties, or use an
+ * unknown variable or filter; parse size, render time and allocation are capped.
+ */
+import { Liquid, type Template } from "liquidjs";
+import { exactDecimal } from "../../shared/dsp/exact-decimal";
+import { cIdent, vhdlIdent } from "../../shared/exports/identifiers";
+import { asciiText, binWord, cLiteral, hexWord, padText, twosComplement } from "../../shared/exports/words";
+
+/** Limits of one template: source size, render time and output size. */
+export const TEMPLATE_LIMITS = {
+  /** Characters of template source. */
+  maxBodyChars: 64 * 1024,
+  /** Milliseconds of render time (liquidjs renderLimit). */
+  renderMs: 2_000,
+  /** Characters liquidjs may allocate while rendering (memoryLimit; a rough count). */
+  memoryChars: 64 * 1024 * 1024,
+  /** Characters of rendered output. */
+  maxOutputChars: 32 * 1024 * 1024,
+} as const;
+
+/** A template problem with its position in the source (1-based), when the engine knows it. */
+export class TemplateError extends Error {
+  constructor(
+    message: string,
+    readonly line: number | null,
+    readonly column: number | null,
+  ) {
+    super(message);
+    this.name = "TemplateError";
+  }
+}
+
+interface Positioned {
+  token?: { getPosition?: () => [number, number] };
+  originalError?: Error;
+  message: string;
+}
+
+/** Turns a liquidjs error into a TemplateError with line and column (message without liquidjs' own suffix). */
+export function toTemplateError(err: unknown): TemplateError {
+  if (err instanceof TemplateError) return err;
+  const e = err as Positioned;
+  const pos = e?.token?.getPosition?.();
+  const raw = e?.originalError?.message ?? e?.message ?? String(err);
+  const message = raw.replace(/, line:\d+, col:\d+$/, "");
+  return pos ? new TemplateError(message, pos[0], pos[1]) : new TemplateError(message, null, null);
+}
+
+type Ctx = { getSync(path: (string | number)[]): unknown };
+
+function specValue(ctx: Ctx, key: string): unknown {
+  return ctx.getSync(["spec", key]);
+}
+
+function wordArgs(self: { context: Ctx }, width: unknown): { w: number; signed: boolean } {
+  const w = width === undefined ? specValue(self.context, "word_length") : width;
+  if (typeof w !== "number") throw new TypeError("the word width must be a number (or set spec.word_length)");
+  const signed = specValue(self.context, "signed");
+  return { w, signed: signed === undefined ? true : Boolean(signed) };
+}
+
+function code(value: unknown): number {
+  const n = typeof value === "string" && /^-?\d+$/.test(value) ? Number(value) : value;
+  if (typeof n !== "number" || !Number.isSafeInteger(n)) throw new TypeError(`expected an integer code, got ${String(value)}`);
+  return n;
+}
+
+/** A configured engine: strict, no file system, our filters. */
+export function createExportEngine(): Liquid {
+  const liquid = new Liquid({
+    // An empty in-memory file system: every lookup fails, and the tags below refuse before that.
+    templates: {},
+    strictVariables: true,
+    strictFilters: true,
+    ownPropertyOnly: true,
+    parseLimit: TEMPLATE_LIMITS.maxBodyChars,
+    renderLimit: TEMPLATE_LIMITS.renderMs,
+    memoryLimit: TEMPLATE_LIMITS.memoryChars,
+    cache: false,
+  });
+  for (const tag of ["include", "render", "layout"]) {
+    liquid.registerTag(tag, {
+      parse() {
+        throw new Error(`the ${tag} tag is not available in export templates (one template, one file)`);
+      },
+      render() {
+        return "";
+      },
+    });
+  }
+  liquid.registerFilter("hex", function (this: { context: Ctx }, v: unknown, width?: unknown) {
+    const { w, signed } = wordArgs(this, width);
+    return hexWord(code(v), w, signed);
+  });
+  liquid.registerFilter("bin", function (this: { context: Ctx }, v: unknown, width?: unknown) {
+    const { w, signed } = wordArgs(this, width);
+    return binWord(code(v), w, signed);
+  });
+  liquid.registerFilter("twos", function (this: { context: Ctx }, v: unknown, width?: unknown) {
+    const { w, signed } = wordArgs(this, width);
+    return twosComplement(code(v), w, signed).toString();
+  });
+  liquid.registerFilter("exact", function (this: { context: Ctx }, v: unknown, fraction?: unknown) {
+    const f = fraction === undefined ? specValue(this.context, "fraction_length") : fraction;
+    if (typeof f !== "number") throw new TypeError("exact needs a fraction length (or spec.fraction_length)");
+    return exactDecimal(code(v), f);
+  });
+  liquid.registerFilter("pad", (v: unknown, width: unknown, fill?: unknown) => {
+    if (typeof width !== "number") throw new TypeError("pad needs a width");
+    return padText(String(v), width, fill === undefined ? " " : String(fill));
+  });
+  liquid.registerFilter("c_ident", (v: unknown) => cIdent(String(v)));
+  liquid.registerFilter("vhdl_ident", (v: unknown) => vhdlIdent(String(v)));
+  liquid.registerFilter("c_literal", (v: unknown) => cLiteral(code(v)));
+  liquid.registerFilter("ascii", (v: unknown) => asciiText(String(v)));
+  return liquid;
+}
+
+// One engine per process is enough: it holds no per-render state (cache is off).
+let shared: Liquid | undefined;
+function engine(): Liquid {
+  shared ??= createExportEngine();
+  return shared;
+}
+
+/** Parses a template body; throws TemplateError with the line and column of the first problem. */
+export function parseTemplate(body: string): Template[] {
+  if (typeof body !== "string") throw new TemplateError("the template must be text", null, null);
+  if (body.length > TEMPLATE_LIMITS.maxBodyChars)
+    throw new TemplateError(`the template is longer than ${TEMPLATE_LIMITS.maxBodyChars} characters`, null, null);
+  try {
+    return engine().parse(body);
+  } catch (err) {
+    throw toTemplateError(err);
+  }
+}
+
+/** Renders a parsed or source template against a context; errors become TemplateError. */
+export async function renderTemplate(template: string | Template[], context: object): Promise<string> {
+  const parsed = typeof template === "string" ? parseTemplate(template) : template;
+  let out: unknown;
+  try {
+    out = await engine().render(parsed, context);
+  } catch (err) {
+    throw toTemplateError(err);
+  }
+  const text = String(out);
+  if (text.length > TEMPLATE_LIMITS.maxOutputChars)
+    throw new TemplateError(`the output is longer than ${TEMPLATE_LIMITS.maxOutputChars} characters`, null, null);
+  return text;
+}
