@@ -7,8 +7,8 @@ import {
   useReactTable,
   type SortingState,
 } from "@tanstack/react-table";
-import { useMemo } from "react";
-import { Link, useSearchParams } from "react-router-dom";
+import { useEffect, useMemo, useState } from "react";
+import { Link, useNavigationType, useSearchParams } from "react-router-dom";
 import { DESIGN_KINDS, REVISION_STATES, type DesignSummary, type RevisionState } from "@shared/schemas/designs";
 import { Badge } from "@/components/ui/badge";
 import { Input } from "@/components/ui/input";
@@ -156,8 +156,19 @@ function Toolbar({ view, setView, shown, total }: { view: ListState; setView: (v
 export function DesignsTable({ projectId, canCreate }: { projectId: number; canCreate: boolean }) {
   const designs = useDesigns(projectId);
   const [params, setParams] = useSearchParams();
-  const view = readListState(params);
-  const setView = (v: ListState) => setParams(writeListState(params, v), { replace: true });
+  const urlView = readListState(params);
+  // The search box keeps its own text: URL writes are router transitions, and a value read back from the
+  // URL drops keystrokes under fast typing. Back/forward and links (not REPLACE) still set it.
+  const [q, setQ] = useState(urlView.q);
+  const navigationType = useNavigationType();
+  useEffect(() => {
+    if (navigationType !== "REPLACE") setQ(urlView.q);
+  }, [urlView.q, navigationType]);
+  const view = { ...urlView, q };
+  const setView = (v: ListState) => {
+    setQ(v.q);
+    setParams(writeListState(params, v), { replace: true });
+  };
   const sorting: SortingState = [view.sort];
   const columnFilters = useMemo(
     () => [
