@@ -68,12 +68,19 @@ interface SectionProps {
 
 function Editor({ revisionId, content, onDirtyChange }: Omit<SectionProps, "editable">) {
   const update = useUpdateRevision(revisionId);
-  const { register, handleSubmit, formState, setError, reset } = useForm<FormIn, unknown, FormOut>({
+  const { register, handleSubmit, formState, setError, reset, watch } = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(FormSchema),
     mode: "onChange",
     defaultValues: { limits: content.limits },
   });
-  useEffect(() => onDirtyChange?.(formState.isDirty), [formState.isDirty, onDirtyChange]);
+  // RHF counts an empty optional box as a change from an absent key; compare the numbers themselves instead.
+  const current = watch("limits");
+  const dirty = keysFor(content.kind).some((k) => {
+    const v = current?.[k] as unknown;
+    const now = v === "" || v === undefined || (typeof v === "number" && Number.isNaN(v)) ? undefined : Number(v);
+    return now !== content.limits[k];
+  });
+  useEffect(() => onDirtyChange?.(dirty), [dirty, onDirtyChange]);
   const onSubmit = handleSubmit(async ({ limits }) => {
     try {
       // Limits of the other kind are kept as they were: this form only shows the ones that apply.
@@ -110,10 +117,10 @@ function Editor({ revisionId, content, onDirtyChange }: Omit<SectionProps, "edit
             {formState.errors.root.server.message}
           </p>
         )}
-        <Button disabled={!formState.isDirty || update.isPending} onClick={() => reset()}>
+        <Button disabled={!dirty || update.isPending} onClick={() => reset()}>
           Discard
         </Button>
-        <Button type="submit" busy={update.isPending} disabled={!formState.isDirty}>
+        <Button type="submit" busy={update.isPending} disabled={!dirty}>
           Save limits
         </Button>
       </div>

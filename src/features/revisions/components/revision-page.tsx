@@ -8,6 +8,7 @@ import { Dialog, DialogActions } from "@/components/ui/dialog";
 import { PageHeader, Section } from "@/components/ui/page";
 import { EmptyState, ErrorState, Skeleton, TableSkeleton } from "@/components/ui/states";
 import { useToast } from "@/components/ui/toast";
+import { AnalysisSection } from "@/features/analysis/components/analysis-section";
 import { ApiError } from "@/lib/api-client";
 import { formatCount, formatDateTime, formatEng } from "@/lib/format";
 import { useRevision } from "../api/get-revision";
@@ -214,11 +215,7 @@ function Revision({ detail }: { detail: RevisionDetail }) {
           onDirtyChange={(d) => setDirty((s) => (s.limits === d ? s : { ...s, limits: d }))}
         />
       </Section>
-      <Section title="Analysis">
-        <EmptyState title="Not analysed yet">
-          No fixed-point report exists for this revision. Its PSL, ISLR, losses, SQNR and bit-width sweep will be listed here against the limits above.
-        </EmptyState>
-      </Section>
+      <AnalysisSection revisionId={revision.id} />
       <Section title="History">
         <ol className="flex flex-col gap-1 rounded border border-paper-300 bg-paper-50 px-4 py-3 text-sm text-ink-800">
           <li>
