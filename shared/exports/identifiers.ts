@@ -32,6 +32,7 @@ function words(text: string): string[] {
   // Letters and digits only (accents dropped by NFKD), runs of anything else become one separator.
   return String(text)
     .normalize("NFKD")
+    .replace(/[\u0300-\u036f]/g, "")
     .replace(/[^A-Za-z0-9]+/g, " ")
     .trim()
     .split(" ")
