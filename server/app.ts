@@ -14,9 +14,9 @@ import { apiNotFound, errorHandler } from "./http/errors";
 import { accountRoutes } from "./routes/account";
 import { adminUserRoutes } from "./routes/admin-users";
 import { analysisRoutes } from "./routes/analyses";
-import { analysisRoutes } from "./routes/analyses";
 import { auditCsvRoutes, auditRoutes } from "./routes/audit";
 import { mailboxRoutes } from "./routes/mailbox";
+import { auditRequestContext } from "./services/audit";
 import { authRoutes } from "./routes/auth";
 import type { RouteContext } from "./routes/context";
 import { healthRoutes } from "./routes/health";
@@ -131,6 +131,7 @@ export function createApp(deps: AppDeps): CreatedApp {
   const passport = createPassport(database.db);
   app.use(passport.initialize());
   app.use(passport.session());
+  app.use(auditRequestContext);
 
   const ctx: RouteContext = {
     db: database.db,
@@ -147,7 +148,6 @@ export function createApp(deps: AppDeps): CreatedApp {
   api.use("/projects/:projectId/uploads", projectUploadRoutes(ctx));
   api.use("/designs", designRoutes(ctx));
   api.use("/revisions", revisionRoutes(ctx));
-  api.use("/revisions", analysisRoutes(ctx));
   api.use("/revisions", analysisRoutes(ctx));
   api.use("/uploads", uploadRoutes(ctx));
   api.use("/admin/users", adminUserRoutes(ctx));

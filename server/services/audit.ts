@@ -1,5 +1,6 @@
 import { and, desc, eq, gte, like, lt, lte, sql, type SQL } from "drizzle-orm";
-import type { Request } from "express";
+import { AsyncLocalStorage } from "node:async_hooks";
+import type { Request, RequestHandler } from "express";
 import type {
   AuditActorKind,
   AuditEvent,
@@ -23,7 +24,8 @@ export interface AuditActor {
 
 /** What happened; `action` is dotted lower case (`auth.sign-in`, `revision.submit`). */
 export interface AuditInput {
-  actor: AuditActor;
+  /** Defaults to the user and address of the HTTP request being served, or the system outside one. */
+  actor?: AuditActor;
   action: string;
   summary: string;
   projectId?: number | null;
@@ -40,6 +42,22 @@ export function actorFrom(req: Request, kind: AuditActorKind = "user"): AuditAct
 /** The server acting on its own (dispatcher, jobs, seed). */
 export const SYSTEM_ACTOR: AuditActor = { kind: "system", userId: null, ip: null };
 
+// The request being served, so services deep below a route can audit who and from where without
+// every signature carrying the request. The request is read when the row is written (passport sets
+// req.user after this middleware runs).
+const currentRequest = new AsyncLocalStorage<Request>();
+
+/** Middleware that makes the request's actor available to recordAudit; mount it before the routes. */
+export const auditRequestContext: RequestHandler = (req, _res, next) => {
+  currentRequest.run(req, next);
+};
+
+/** The actor of the request being served, or the system when there is none. */
+export function currentActor(): AuditActor {
+  const req = currentRequest.getStore();
+  return req ? actorFrom(req) : SYSTEM_ACTOR;
+}
+
 /**
  * Append one audit row in the caller's transaction, so the row exists exactly when the change committed.
  * Returns the new row's id.
@@ -47,12 +65,13 @@ export const SYSTEM_ACTOR: AuditActor = { kind: "system", userId: null, ip: null
 export async function recordAudit(tx: Executor, event: AuditInput): Promise<number> {
   // Checked here too so a typo fails in the caller's test rather than as a bare CHECK violation.
   AuditActionSchema.parse(event.action);
+  const actor = event.actor ?? currentActor();
   const [row] = await tx
     .insert(auditEvents)
     .values({
-      actorKind: event.actor.kind,
-      actorUserId: event.actor.userId,
-      ip: event.actor.ip ?? null,
+      actorKind: actor.kind,
+      actorUserId: actor.userId,
+      ip: actor.ip ?? null,
       action: event.action,
       summary: event.summary,
       projectId: event.projectId ?? null,

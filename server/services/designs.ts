@@ -12,6 +12,7 @@ import { coefficientTables, designs, projectMembers, projects, revisions, users 
 import { HttpError, validationFailed } from "../http/errors";
 import { MaterializeError, materialize, uploadIdsOf, type MaterializedTable } from "./materialize";
 import type { Viewer } from "./projects";
+import { recordAudit } from "./audit";
 import { parsedUploads } from "./uploads";
 
 /** A transaction handle (same query API as Db). */
@@ -190,6 +191,14 @@ export async function createDesign(
         .returning({ id: revisions.id });
       if (!revision) throw new Error("revision insert returned no row");
       await insertTables(tx, revision.id, tables);
+      await recordAudit(tx, {
+        action: "design.create",
+        projectId,
+        subjectType: "design",
+        subjectId: design.id,
+        summary: `Created ${input.content.kind} design "${input.name}" with draft r1`,
+        details: { name: input.name, kind: input.content.kind, revisionId: revision.id },
+      });
       return { designId: design.id, revisionId: revision.id };
     });
   const [design] = await designSummaries(db, eq(designs.id, ids.designId));

@@ -9,6 +9,7 @@ import type {
 import type { Db } from "../db/client";
 import { projectMembers, projects, users } from "../db/schema";
 import { HttpError, validationFailed } from "../http/errors";
+import { recordAudit } from "./audit";
 import { missingUserIds, rolesByUser } from "./users";
 
 /** Who is asking: admins see every project, everyone else only their own. */
@@ -92,12 +93,23 @@ export async function getProject(db: Db, viewer: Viewer, id: number): Promise<Pr
 
 /** Create a project (admin only; checked by the route). */
 export async function createProject(db: Db, input: CreateProjectInput): Promise<Project> {
-  const [row] = await db
-    .insert(projects)
-    .values(input)
-    .onConflictDoNothing({ target: projects.slug })
-    .returning({ id: projects.id });
-  if (!row) throw validationFailed([{ path: ["slug"], message: "this slug is taken" }]);
+  const row = await db.transaction(async (tx) => {
+    const [inserted] = await tx
+      .insert(projects)
+      .values(input)
+      .onConflictDoNothing({ target: projects.slug })
+      .returning({ id: projects.id });
+    if (!inserted) throw validationFailed([{ path: ["slug"], message: "this slug is taken" }]);
+    await recordAudit(tx, {
+      action: "project.create",
+      projectId: inserted.id,
+      subjectType: "project",
+      subjectId: inserted.id,
+      summary: `Created project ${input.slug}`,
+      details: { slug: input.slug, name: input.name },
+    });
+    return inserted;
+  });
   const [created] = await db.select(projectColumns).from(projects).where(eq(projects.id, row.id));
   if (!created) throw new Error(`project ${row.id} vanished after insert`);
   return toProject(created);
@@ -118,6 +130,14 @@ export async function setMembers(db: Db, projectId: number, userIds: number[]): 
     await tx.delete(projectMembers).where(eq(projectMembers.projectId, projectId));
     if (unique.length > 0)
       await tx.insert(projectMembers).values(unique.map((userId) => ({ projectId, userId })));
+    await recordAudit(tx, {
+      action: "project.members",
+      projectId,
+      subjectType: "project",
+      subjectId: projectId,
+      summary: `Set ${unique.length} member${unique.length === 1 ? "" : "s"} of the project`,
+      details: { userIds: unique },
+    });
   });
   const [row] = await db.select(projectColumns).from(projects).where(eq(projects.id, projectId));
   if (!row) throw new HttpError("not_found", "No such project");

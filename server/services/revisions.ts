@@ -7,6 +7,7 @@ import { contentHash } from "./content-hash";
 import { canAuthor, insertTables, revisionSummaries, tablesFor, visibleDesign, type Tx } from "./designs";
 import { uploadIdsOf } from "./materialize";
 import type { Viewer } from "./projects";
+import { recordAudit } from "./audit";
 import { uploadsByIds } from "./uploads";
 
 const STATE_WORDS: Record<RevisionState, string> = {
@@ -85,7 +86,7 @@ const isUniqueViolation = (e: unknown): boolean =>
 
 /** A new draft copied (content and tables) from the design's latest revision; 409 if a draft exists. */
 export async function createRevision(db: Db, viewer: Viewer, designId: number): Promise<number> {
-  await visibleDesign(db, viewer, designId);
+  const { project } = await visibleDesign(db, viewer, designId);
   const draftExists = (id: number | undefined) =>
     new HttpError("conflict", "This design already has a draft: edit it instead", { revisionId: id });
   const findDraft = async (h: Db | Tx = db) =>
@@ -123,6 +124,14 @@ export async function createRevision(db: Db, viewer: Viewer, designId: number): 
         select ${created.id}, role, position, complex, length, sample_rate_hz, source, values, values_sha256
         from ${coefficientTables} where revision_id = ${latest.id}`);
       await tx.update(designs).set({ updatedAt: new Date() }).where(eq(designs.id, designId));
+      await recordAudit(tx, {
+        action: "revision.create",
+        projectId: project.id,
+        subjectType: "revision",
+        subjectId: created.id,
+        summary: `Started r${latest.number + 1} of design ${designId} from r${latest.number}`,
+        details: { designId, number: latest.number + 1, parentRevisionId: latest.id },
+      });
       return created.id;
     });
   } catch (e) {
@@ -146,13 +155,21 @@ export async function updateRevision(db: Db, viewer: Viewer, id: number, content
     await tx.delete(coefficientTables).where(eq(coefficientTables.revisionId, id));
     await insertTables(tx, id, tables);
     await tx.update(designs).set({ updatedAt: new Date() }).where(eq(designs.id, design.id));
+    await recordAudit(tx, {
+      action: "revision.update",
+      projectId: project.id,
+      subjectType: "revision",
+      subjectId: id,
+      summary: `Edited draft r${locked.number} of ${design.name}`,
+      details: { designId: design.id, number: locked.number, tables: tables.length },
+    });
   });
   return getRevision(db, viewer, id);
 }
 
 /** Fix the content hash and move a draft to in_review. */
 export async function submitRevision(db: Db, viewer: Viewer, id: number): Promise<RevisionDetail> {
-  const { row } = await visibleRevision(db, viewer, id);
+  const { row, design, project } = await visibleRevision(db, viewer, id);
   if (row.state !== "draft") throw frozen(row.number, row.state);
   await db.transaction(async (tx) => {
     const locked = await revisionRow(tx, id, true);
@@ -177,6 +194,14 @@ export async function submitRevision(db: Db, viewer: Viewer, id: number): Promis
         submittedAt: new Date(),
       })
       .where(eq(revisions.id, id));
+    await recordAudit(tx, {
+      action: "revision.submit",
+      projectId: project.id,
+      subjectType: "revision",
+      subjectId: id,
+      summary: `Submitted r${locked.number} of ${design.name} for review`,
+      details: { designId: design.id, number: locked.number, contentHash: contentHash(locked.content, tables) },
+    });
   });
   return getRevision(db, viewer, id);
 }

@@ -7,6 +7,7 @@ import { uploads } from "../db/schema";
 import { HttpError } from "../http/errors";
 import type { ParsedUpload } from "./materialize";
 import { projectAccess } from "./designs";
+import { recordAudit } from "./audit";
 import type { Viewer } from "./projects";
 
 /** A file as multer hands it over. */
@@ -62,22 +63,34 @@ export async function createUpload(db: Db, viewer: Viewer, projectId: number, fi
       throw new HttpError("validation_failed", `${fileName}: ${e.message}`, { line: e.line, column: e.column });
     throw e;
   }
-  const [row] = await db
-    .insert(uploads)
-    .values({
+  const sha256 = createHash("sha256").update(file.buffer).digest("hex");
+  const row = await db.transaction(async (tx) => {
+    const [inserted] = await tx
+      .insert(uploads)
+      .values({
+        projectId,
+        uploadedById: viewer.id,
+        fileName,
+        mediaType: (file.mimetype || "application/octet-stream").slice(0, 255),
+        sizeBytes: file.buffer.byteLength,
+        sha256,
+        content: file.buffer,
+        format: parsed.format,
+        complex: parsed.complex,
+        count: parsed.re.length,
+      })
+      .returning(uploadColumns);
+    if (!inserted) throw new Error("upload insert returned no row");
+    await recordAudit(tx, {
+      action: "upload.create",
       projectId,
-      uploadedById: viewer.id,
-      fileName,
-      mediaType: (file.mimetype || "application/octet-stream").slice(0, 255),
-      sizeBytes: file.buffer.byteLength,
-      sha256: createHash("sha256").update(file.buffer).digest("hex"),
-      content: file.buffer,
-      format: parsed.format,
-      complex: parsed.complex,
-      count: parsed.re.length,
-    })
-    .returning(uploadColumns);
-  if (!row) throw new Error("upload insert returned no row");
+      subjectType: "upload",
+      subjectId: inserted.id,
+      summary: `Uploaded ${fileName} (${file.buffer.byteLength} bytes, ${parsed.re.length} values)`,
+      details: { fileName, sha256, sizeBytes: file.buffer.byteLength, format: parsed.format },
+    });
+    return inserted;
+  });
   return toUpload(row);
 }
 

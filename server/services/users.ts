@@ -5,6 +5,7 @@ import { generateTemporaryPassword, hashPassword, verifyPassword } from "../auth
 import type { Db } from "../db/client";
 import { session, userRoles, users } from "../db/schema";
 import { HttpError, validationFailed } from "../http/errors";
+import { recordAudit, type Executor } from "./audit";
 
 type UserRow = typeof users.$inferSelect;
 
@@ -83,7 +84,7 @@ export async function checkCredentials(db: Db, username: string, password: strin
 }
 
 /** Record a successful sign-in time. */
-export async function touchSignIn(db: Db, userId: number): Promise<void> {
+export async function touchSignIn(db: Executor, userId: number): Promise<void> {
   await db.update(users).set({ lastSignInAt: new Date() }).where(eq(users.id, userId));
 }
 
@@ -94,10 +95,16 @@ export async function changePassword(db: Db, userId: number, current: string, ne
   if (!(await verifyPassword(current, user.passwordHash))) {
     throw validationFailed([{ path: ["currentPassword"], message: "the current password is not correct" }]);
   }
-  await db
-    .update(users)
-    .set({ passwordHash: await hashPassword(next), mustChangePassword: false })
-    .where(eq(users.id, userId));
+  const passwordHash = await hashPassword(next);
+  await db.transaction(async (tx) => {
+    await tx.update(users).set({ passwordHash, mustChangePassword: false }).where(eq(users.id, userId));
+    await recordAudit(tx, {
+      action: "user.password-change",
+      subjectType: "user",
+      subjectId: userId,
+      summary: `${user.username} changed their password`,
+    });
+  });
 }
 
 /** Every user, for the admin list, sorted by user name. */
@@ -128,6 +135,13 @@ export async function createUser(
     const row = inserted[0];
     if (!row) throw validationFailed([{ path: ["username"], message: "this user name is taken" }]);
     await tx.insert(userRoles).values([...new Set(input.roles)].map((role) => ({ userId: row.id, role })));
+    await recordAudit(tx, {
+      action: "user.create",
+      subjectType: "user",
+      subjectId: row.id,
+      summary: `Created user ${input.username.toLowerCase()} with roles ${[...new Set(input.roles)].join(", ")}`,
+      details: { username: input.username.toLowerCase(), roles: [...new Set(input.roles)] },
+    });
     return row.id;
   });
   const created = await findUserById(db, id);
@@ -139,6 +153,16 @@ export async function createUser(
 export async function endSessionsOf(db: Db, userId: number): Promise<number> {
   const deleted = await db.delete(session).where(eq(session.userId, userId)).returning({ sid: session.sid });
   return deleted.length;
+}
+
+/** One line for the audit trail naming what an admin changed on a user. */
+function describeUserChange(u: UserRecord, input: UpdateUserInput): string {
+  const parts: string[] = [];
+  if (input.roles) parts.push(`roles ${u.roles.join(", ")} → ${[...new Set(input.roles)].join(", ")}`);
+  if (input.active === false && u.active) parts.push("deactivated");
+  if (input.active === true && !u.active) parts.push("reactivated");
+  if (input.displayName !== undefined && input.displayName !== u.displayName) parts.push("display name changed");
+  return `Updated user ${u.username}: ${parts.length > 0 ? parts.join("; ") : "no visible change"}`;
 }
 
 /** Update name, roles or active flag; an admin cannot deactivate or de-admin themself. */
@@ -161,6 +185,17 @@ export async function updateUser(db: Db, actorId: number, id: number, input: Upd
       await tx.insert(userRoles).values([...new Set(input.roles)].map((role) => ({ userId: id, role })));
     }
     if (input.active === false) await tx.delete(session).where(eq(session.userId, id));
+    await recordAudit(tx, {
+      action: "user.update",
+      subjectType: "user",
+      subjectId: id,
+      summary: describeUserChange(existing, input),
+      details: {
+        username: existing.username,
+        before: { displayName: existing.displayName, roles: existing.roles, active: existing.active },
+        after: input,
+      },
+    });
   });
   const updated = await findUserById(db, id);
   if (!updated) throw new HttpError("not_found", "No such user");

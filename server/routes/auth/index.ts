@@ -5,6 +5,7 @@ import { SignInSchema, type SessionUser } from "../../../shared/schemas/auth";
 import type { SignInFailure } from "../../auth/passport";
 import { currentUser } from "../../auth/guards";
 import { HttpError, parseInput } from "../../http/errors";
+import { actorFrom, recordAudit } from "../../services/audit";
 import { touchSignIn } from "../../services/users";
 import type { RouteContext } from "../context";
 
@@ -66,14 +67,50 @@ export function authRoutes(ctx: RouteContext): Router {
   r.post("/sign-in", limiter, async (req, res, next) => {
     const input = parseInput(SignInSchema, req.body);
     req.body = input;
-    const user = await authenticate(ctx, req, res, next);
+    let user: SessionUser;
+    try {
+      user = await authenticate(ctx, req, res, next);
+    } catch (err) {
+      if (err instanceof HttpError) {
+        // Nothing changes on a refused sign-in, so the row stands alone (no transaction to join).
+        await recordAudit(ctx.db, {
+          actor: actorFrom(req),
+          action: "auth.sign-in-failed",
+          subjectType: "user",
+          summary: `Sign-in refused for "${input.username}" (${err.code === "forbidden" ? "deactivated" : "wrong user name or password"})`,
+          details: {
+            username: input.username,
+            reason: err.code === "forbidden" ? "deactivated" : "bad_credentials",
+          },
+        });
+      }
+      throw err;
+    }
     await logIn(req, user);
-    await touchSignIn(ctx.db, user.id);
+    await ctx.db.transaction(async (tx) => {
+      await touchSignIn(tx, user.id);
+      await recordAudit(tx, {
+        actor: { kind: "user", userId: user.id, ip: req.ip ?? null },
+        action: "auth.sign-in",
+        subjectType: "user",
+        subjectId: user.id,
+        summary: `${user.username} signed in`,
+      });
+    });
     res.status(200).json({ user });
   });
 
   r.post("/sign-out", async (req, res) => {
-    if (req.user) await logOut(req);
+    if (req.user) {
+      await recordAudit(ctx.db, {
+        actor: actorFrom(req),
+        action: "auth.sign-out",
+        subjectType: "user",
+        subjectId: req.user.id,
+        summary: `${req.user.username} signed out`,
+      });
+      await logOut(req);
+    }
     if (req.session) await destroySession(req);
     res.clearCookie("tapwright.sid", { path: "/" });
     res.status(204).end();
