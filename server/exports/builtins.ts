@@ -50,7 +50,8 @@ export function parseFrontMatter(file: string, text: string): Omit<BuiltinTempla
     return v;
   };
   const version = Number(need("version"));
-  if (!Number.isInteger(version) || version < 1) throw new Error(`${file}: version must be a positive integer`);
+  if (!Number.isInteger(version) || version < 1)
+    throw new Error(`${file}: version must be a positive integer`);
   return {
     id: need("id"),
     name: need("name"),

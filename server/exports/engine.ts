@@ -63,7 +63,8 @@ function wordArgs(self: { context: Ctx }, width: unknown): { w: number; signed: 
 
 function code(value: unknown): number {
   const n = typeof value === "string" && /^-?\d+$/.test(value) ? Number(value) : value;
-  if (typeof n !== "number" || !Number.isSafeInteger(n)) throw new TypeError(`expected an integer code, got ${String(value)}`);
+  if (typeof n !== "number" || !Number.isSafeInteger(n))
+    throw new TypeError(`expected an integer code, got ${String(value)}`);
   return n;
 }
 
@@ -129,7 +130,11 @@ function engine(): Liquid {
 export function parseTemplate(body: string): Template[] {
   if (typeof body !== "string") throw new TemplateError("the template must be text", null, null);
   if (body.length > TEMPLATE_LIMITS.maxBodyChars)
-    throw new TemplateError(`the template is longer than ${TEMPLATE_LIMITS.maxBodyChars} characters`, null, null);
+    throw new TemplateError(
+      `the template is longer than ${TEMPLATE_LIMITS.maxBodyChars} characters`,
+      null,
+      null,
+    );
   try {
     return engine().parse(body);
   } catch (err) {
@@ -148,6 +153,10 @@ export async function renderTemplate(template: string | Template[], context: obj
   }
   const text = String(out);
   if (text.length > TEMPLATE_LIMITS.maxOutputChars)
-    throw new TemplateError(`the output is longer than ${TEMPLATE_LIMITS.maxOutputChars} characters`, null, null);
+    throw new TemplateError(
+      `the output is longer than ${TEMPLATE_LIMITS.maxOutputChars} characters`,
+      null,
+      null,
+    );
   return text;
 }

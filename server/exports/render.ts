@@ -26,13 +26,19 @@ export interface RenderedExport {
 }
 
 /** Suggested file name: `<table ident>.<template id>.<extension>` (unique per table and template). */
-export function exportFileName(ctx: ExportContext, template: Pick<RenderableTemplate, "id" | "extension">): string {
+export function exportFileName(
+  ctx: ExportContext,
+  template: Pick<RenderableTemplate, "id" | "extension">,
+): string {
   const safeId = template.id.replace(/[^A-Za-z0-9_-]+/g, "-");
   return `${ctx.table.ident}.${safeId}.${template.extension}`;
 }
 
 /** Renders one table with one template; a bad template throws TemplateError (line and column). */
-export async function renderExport(template: RenderableTemplate, ctx: ExportContext): Promise<RenderedExport> {
+export async function renderExport(
+  template: RenderableTemplate,
+  ctx: ExportContext,
+): Promise<RenderedExport> {
   let bytes: Uint8Array;
   if (template.kind === "binary") bytes = renderBinary(ctx);
   else {

@@ -19,8 +19,19 @@ const META = {
   contentHash: "sha256:" + "0".repeat(64),
 } as const;
 
-function signedSpec(wordLength: number, fractionLength: number, scaling: FixedPointSpec["scaling"]): FixedPointSpec {
-  return { wordLength, fractionLength, signed: true, scaling, rounding: "nearest-even", overflow: "saturate" };
+function signedSpec(
+  wordLength: number,
+  fractionLength: number,
+  scaling: FixedPointSpec["scaling"],
+): FixedPointSpec {
+  return {
+    wordLength,
+    fractionLength,
+    signed: true,
+    scaling,
+    rounding: "nearest-even",
+    overflow: "saturate",
+  };
 }
 
 /** A quantized sample table's render context (fictional names; values from the DSP core). */

@@ -17,7 +17,9 @@ function checkWord(code: unknown, wordLength: unknown, signed: boolean): bigint 
   const min = signed ? -(1n << (w - 1n)) : 0n;
   const max = signed ? (1n << (w - 1n)) - 1n : (1n << w) - 1n;
   if (c < min || c > max)
-    throw new RangeError(`code ${code} does not fit a ${signed ? "signed" : "unsigned"} ${wordLength}-bit word`);
+    throw new RangeError(
+      `code ${code} does not fit a ${signed ? "signed" : "unsigned"} ${wordLength}-bit word`,
+    );
   return c;
 }
 

@@ -32,7 +32,11 @@ describe("hex, bin and twos words", () => {
   it("round-trips every code: sign-extending the hex word (BigInt.asIntN) gives the code back", () => {
     fc.assert(
       fc.property(
-        fc.integer({ min: 2, max: 32 }).chain((w) => fc.tuple(fc.constant(w), fc.integer({ min: -(2 ** (w - 1)), max: 2 ** (w - 1) - 1 }))),
+        fc
+          .integer({ min: 2, max: 32 })
+          .chain((w) =>
+            fc.tuple(fc.constant(w), fc.integer({ min: -(2 ** (w - 1)), max: 2 ** (w - 1) - 1 })),
+          ),
         ([w, c]) => {
           const hex = hexWord(c, w);
           expect(hex.length).toBe(Math.ceil(w / 4));
@@ -85,10 +89,15 @@ describe("identifiers", () => {
 describe("the sandboxed engine", () => {
   it("applies our filters with widths from the spec by default", async () => {
     const ctx = sampleExportContext("real"); // W = 12, F = 11
-    expect(await renderTemplate("{{ -1 | hex }} {{ -2048 | hex }} {{ -1 | hex: 16 }} {{ -1 | bin: 4 }} {{ -1 | twos }}", ctx)).toBe(
-      "FFF 800 FFFF 1111 4095",
+    expect(
+      await renderTemplate(
+        "{{ -1 | hex }} {{ -2048 | hex }} {{ -1 | hex: 16 }} {{ -1 | bin: 4 }} {{ -1 | twos }}",
+        ctx,
+      ),
+    ).toBe("FFF 800 FFFF 1111 4095");
+    expect(await renderTemplate("{{ -3 | exact: 2 }} {{ 1 | exact }} {{ 'x' | pad: 3 }}", ctx)).toBe(
+      "-0.75 0.00048828125   x",
     );
-    expect(await renderTemplate("{{ -3 | exact: 2 }} {{ 1 | exact }} {{ 'x' | pad: 3 }}", ctx)).toBe("-0.75 0.00048828125   x");
   });
 
   it("answers an unknown filter with its line and column", async () => {
@@ -136,7 +145,14 @@ describe("the sandboxed engine", () => {
 describe("built-in templates", () => {
   it("each has an id, a name, a version and an extension, and renders both sample tables", async () => {
     const list = builtinTemplates();
-    expect(list.map((t) => t.id).sort()).toEqual(["binary", "c-header", "csv", "json", "readmemh", "vhdl-package"]);
+    expect(list.map((t) => t.id).sort()).toEqual([
+      "binary",
+      "c-header",
+      "csv",
+      "json",
+      "readmemh",
+      "vhdl-package",
+    ]);
     for (const t of list) {
       expect(t.version).toBeGreaterThanOrEqual(1);
       expect(t.extension).toMatch(/^[a-z0-9]+$/);

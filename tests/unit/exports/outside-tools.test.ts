@@ -18,18 +18,23 @@ function has(tool: string): boolean {
 }
 const TOOLS = { iverilog: has("iverilog") && has("vvp"), gcc: has("gcc"), ghdl: has("ghdl") };
 for (const [tool, ok] of Object.entries(TOOLS))
-  if (!ok) console.warn(`exports: ${tool} is not installed; its checks are SKIPPED (apt-get install -y ${tool})`);
+  if (!ok)
+    console.warn(`exports: ${tool} is not installed; its checks are SKIPPED (apt-get install -y ${tool})`);
 
 const work = mkdtempSync(path.join(tmpdir(), "tapwright-exports-"));
 afterAll(() => rmSync(work, { recursive: true, force: true }));
 
 function run(cmd: string, args: string[], cwd: string): string {
   const r = spawnSync(cmd, args, { cwd, encoding: "utf8", timeout: 60_000 });
-  if (r.status !== 0) throw new Error(`${cmd} ${args.join(" ")} failed (${r.status}):\n${r.stdout}\n${r.stderr}`);
+  if (r.status !== 0)
+    throw new Error(`${cmd} ${args.join(" ")} failed (${r.status}):\n${r.stdout}\n${r.stderr}`);
   return r.stdout;
 }
 
-async function render(id: string, c: TableCase): Promise<{ text: string; bytes: Uint8Array; fileName: string }> {
+async function render(
+  id: string,
+  c: TableCase,
+): Promise<{ text: string; bytes: Uint8Array; fileName: string }> {
   const t = builtinTemplate(id);
   if (!t) throw new Error(`no built-in ${id}`);
   const r = await renderExport(t, c.ctx);
@@ -65,17 +70,19 @@ describe.each(CASES)("$label", (c) => {
   const expectedWords = c.ctx.table.complex ? c.codesI.flatMap((v, k) => [v, c.codesQ[k]!]) : c.codesI;
   const W = c.ctx.spec.word_length;
 
-  it.skipIf(!TOOLS.iverilog)("$readmemh in Icarus Verilog (-g2012) prints the quantized integers, sign-extended", async () => {
-    const d = dir(`v-${c.ctx.table.ident}-${W}`);
-    const hex = await render("readmemh", c);
-    // IEEE 1364-2005 §17.2.9: one word per line, ⌈W/4⌉ digits; -1 at W=12 is FFF (REFERENCES.md).
-    const dataLines = hex.text.split("\n").filter((l) => l !== "" && !l.startsWith("//"));
-    expect(dataLines.length).toBe(expectedWords.length);
-    for (const l of dataLines) expect(l).toMatch(new RegExp(`^[0-9A-F]{${Math.ceil(W / 4)}}$`));
-    writeFileSync(path.join(d, "table.hex"), hex.bytes);
-    writeFileSync(
-      path.join(d, "tb.v"),
-      `module tb;
+  it.skipIf(!TOOLS.iverilog)(
+    "$readmemh in Icarus Verilog (-g2012) prints the quantized integers, sign-extended",
+    async () => {
+      const d = dir(`v-${c.ctx.table.ident}-${W}`);
+      const hex = await render("readmemh", c);
+      // IEEE 1364-2005 §17.2.9: one word per line, ⌈W/4⌉ digits; -1 at W=12 is FFF (REFERENCES.md).
+      const dataLines = hex.text.split("\n").filter((l) => l !== "" && !l.startsWith("//"));
+      expect(dataLines.length).toBe(expectedWords.length);
+      for (const l of dataLines) expect(l).toMatch(new RegExp(`^[0-9A-F]{${Math.ceil(W / 4)}}$`));
+      writeFileSync(path.join(d, "table.hex"), hex.bytes);
+      writeFileSync(
+        path.join(d, "tb.v"),
+        `module tb;
   reg signed [${W - 1}:0] mem [0:${expectedWords.length - 1}];
   integer k;
   initial begin
@@ -85,23 +92,26 @@ describe.each(CASES)("$label", (c) => {
   end
 endmodule
 `,
-    );
-    run("iverilog", ["-g2012", "-o", "tb.vvp", "tb.v"], d);
-    const out = run("vvp", ["-n", "tb.vvp"], d);
-    expect(out).not.toMatch(/[xz]/i);
-    expect(numbers(out)).toEqual(expectedWords);
-  });
+      );
+      run("iverilog", ["-g2012", "-o", "tb.vvp", "tb.v"], d);
+      const out = run("vvp", ["-n", "tb.vvp"], d);
+      expect(out).not.toMatch(/[xz]/i);
+      expect(numbers(out)).toEqual(expectedWords);
+    },
+  );
 
-  it.skipIf(!TOOLS.gcc)("the C header compiles with gcc -std=c99 -Wall -Wextra -Werror and prints the integers", async () => {
-    const d = dir(`c-${c.ctx.table.ident}-${W}`);
-    const h = await render("c-header", c);
-    writeFileSync(path.join(d, "table.h"), h.bytes);
-    const id = c.ctx.table.ident;
-    const ID = id.toUpperCase();
-    const arrays = c.ctx.table.complex ? [`${id}_i`, `${id}_q`] : [id];
-    writeFileSync(
-      path.join(d, "main.c"),
-      `#include <stdio.h>
+  it.skipIf(!TOOLS.gcc)(
+    "the C header compiles with gcc -std=c99 -Wall -Wextra -Werror and prints the integers",
+    async () => {
+      const d = dir(`c-${c.ctx.table.ident}-${W}`);
+      const h = await render("c-header", c);
+      writeFileSync(path.join(d, "table.h"), h.bytes);
+      const id = c.ctx.table.ident;
+      const ID = id.toUpperCase();
+      const arrays = c.ctx.table.complex ? [`${id}_i`, `${id}_q`] : [id];
+      writeFileSync(
+        path.join(d, "main.c"),
+        `#include <stdio.h>
 #include "table.h"
 #include "table.h" /* the include guard makes a second include harmless */
 int main(void) {
@@ -113,36 +123,47 @@ ${arrays.map((a) => `    printf("%lld\\n", (long long)${a}[k]);`).join("\n")}
   return 0;
 }
 `,
-    );
-    // A second unit that includes the header but uses nothing: no unused-variable warning may fail it.
-    writeFileSync(path.join(d, "other.c"), `#include "table.h"\nint other(void);\nint other(void) { return 0; }\n`);
-    const flags = ["-std=c99", "-pedantic", "-Wall", "-Wextra", "-Werror"];
-    run("gcc", [...flags, "-o", "prog", "main.c", "other.c"], d);
-    const [head, ...rest] = run(path.join(d, "prog"), [], d).trim().split("\n");
-    expect(numbers(head!)).toEqual([c.ctx.table.length, W, c.ctx.spec.fraction_length, c.ctx.table.complex ? 1 : 0]);
-    expect(rest.map(Number)).toEqual(expectedWords);
-    const type = h.text.match(/static const (\w+) /)?.[1];
-    expect(type).toBe(W <= 8 ? "int8_t" : W <= 16 ? "int16_t" : "int32_t");
-  });
+      );
+      // A second unit that includes the header but uses nothing: no unused-variable warning may fail it.
+      writeFileSync(
+        path.join(d, "other.c"),
+        `#include "table.h"\nint other(void);\nint other(void) { return 0; }\n`,
+      );
+      const flags = ["-std=c99", "-pedantic", "-Wall", "-Wextra", "-Werror"];
+      run("gcc", [...flags, "-o", "prog", "main.c", "other.c"], d);
+      const [head, ...rest] = run(path.join(d, "prog"), [], d).trim().split("\n");
+      expect(numbers(head!)).toEqual([
+        c.ctx.table.length,
+        W,
+        c.ctx.spec.fraction_length,
+        c.ctx.table.complex ? 1 : 0,
+      ]);
+      expect(rest.map(Number)).toEqual(expectedWords);
+      const type = h.text.match(/static const (\w+) /)?.[1];
+      expect(type).toBe(W <= 8 ? "int8_t" : W <= 16 ? "int16_t" : "int32_t");
+    },
+  );
 
-  it.skipIf(!TOOLS.ghdl)("GHDL analyses the VHDL-2008 package and a testbench prints the integers (ghdl -r)", async () => {
-    const d = dir(`vhdl-${c.ctx.table.ident}-${W}`);
-    const pkg = await render("vhdl-package", c);
-    writeFileSync(path.join(d, "table_pkg.vhd"), pkg.bytes);
-    const id = /^package (\w+)_pkg is/m.exec(pkg.text)?.[1];
-    expect(id).toBeTruthy();
-    const ints = c.ctx.spec.vhdl_integer_ok;
-    const parts = c.ctx.table.complex ? ["i", "q"] : ["i"];
-    const lines = parts
-      .map((p) => {
-        const viaVector = `write(l, integer'image(to_integer(${id}_${p}(k)))); writeline(output, l);`;
-        const viaInt = ints ? `write(l, integer'image(${id}_${p}_int(k))); writeline(output, l);` : "";
-        return `${viaVector} ${viaInt}`;
-      })
-      .join("\n        ");
-    writeFileSync(
-      path.join(d, "tb.vhd"),
-      `library ieee;
+  it.skipIf(!TOOLS.ghdl)(
+    "GHDL analyses the VHDL-2008 package and a testbench prints the integers (ghdl -r)",
+    async () => {
+      const d = dir(`vhdl-${c.ctx.table.ident}-${W}`);
+      const pkg = await render("vhdl-package", c);
+      writeFileSync(path.join(d, "table_pkg.vhd"), pkg.bytes);
+      const id = /^package (\w+)_pkg is/m.exec(pkg.text)?.[1];
+      expect(id).toBeTruthy();
+      const ints = c.ctx.spec.vhdl_integer_ok;
+      const parts = c.ctx.table.complex ? ["i", "q"] : ["i"];
+      const lines = parts
+        .map((p) => {
+          const viaVector = `write(l, integer'image(to_integer(${id}_${p}(k)))); writeline(output, l);`;
+          const viaInt = ints ? `write(l, integer'image(${id}_${p}_int(k))); writeline(output, l);` : "";
+          return `${viaVector} ${viaInt}`;
+        })
+        .join("\n        ");
+      writeFileSync(
+        path.join(d, "tb.vhd"),
+        `library ieee;
 use ieee.numeric_std.all;
 use std.textio.all;
 use work.${id}_pkg.all;
@@ -160,20 +181,21 @@ begin
   end process;
 end architecture sim;
 `,
-    );
-    run("ghdl", ["-a", "--std=08", "table_pkg.vhd"], d);
-    run("ghdl", ["-a", "--std=08", "tb.vhd"], d);
-    run("ghdl", ["-e", "--std=08", "tb"], d);
-    const out = numbers(run("ghdl", ["-r", "--std=08", "tb"], d));
-    // Per tap: I via the vector, I via the integer array (when present), then the same for Q.
-    const perPart = ints ? 2 : 1;
-    const expected = c.codesI.flatMap((v, k) => {
-      const i = Array<number>(perPart).fill(v);
-      const q = c.ctx.table.complex ? Array<number>(perPart).fill(c.codesQ[k]!) : [];
-      return [...i, ...q];
-    });
-    expect(out).toEqual(expected);
-  });
+      );
+      run("ghdl", ["-a", "--std=08", "table_pkg.vhd"], d);
+      run("ghdl", ["-a", "--std=08", "tb.vhd"], d);
+      run("ghdl", ["-e", "--std=08", "tb"], d);
+      const out = numbers(run("ghdl", ["-r", "--std=08", "tb"], d));
+      // Per tap: I via the vector, I via the integer array (when present), then the same for Q.
+      const perPart = ints ? 2 : 1;
+      const expected = c.codesI.flatMap((v, k) => {
+        const i = Array<number>(perPart).fill(v);
+        const q = c.ctx.table.complex ? Array<number>(perPart).fill(c.codesQ[k]!) : [];
+        return [...i, ...q];
+      });
+      expect(out).toEqual(expected);
+    },
+  );
 
   it("CSV: integers equal the codes and every exact decimal equals decimal.js's code/2^F", async () => {
     const csv = await render("csv", c);
@@ -186,14 +208,20 @@ end architecture sim;
     expect(rows.length).toBe(c.ctx.table.length);
     rows.forEach((row, k) => {
       const cells = row.split(",");
-      const groups = c.ctx.table.complex ? [[c.codesI[k]!, 1], [c.codesQ[k]!, 4]] : [[c.codesI[k]!, 1]];
+      const groups = c.ctx.table.complex
+        ? [
+            [c.codesI[k]!, 1],
+            [c.codesQ[k]!, 4],
+          ]
+        : [[c.codesI[k]!, 1]];
       expect(Number(cells[0])).toBe(k);
       for (const [code, at] of groups as [number, number][]) {
         expect(Number(cells[at])).toBe(code);
         expect(cells[at + 1]).toBe(new D(code).div(new D(2).pow(F)).toFixed());
         // The float reference is within half an LSB of the exact value (rounding, no overflow here).
         const lsb = 2 ** -F;
-        if (Math.abs(code) < 2 ** (W - 1) - 1) expect(Math.abs(Number(cells[at + 2]) - code * lsb)).toBeLessThanOrEqual(lsb / 2);
+        if (Math.abs(code) < 2 ** (W - 1) - 1)
+          expect(Math.abs(Number(cells[at + 2]) - code * lsb)).toBeLessThanOrEqual(lsb / 2);
       }
     });
   });

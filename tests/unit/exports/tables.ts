@@ -17,7 +17,14 @@ export interface TableCase {
   codesQ: number[];
 }
 
-function make(label: string, name: string, role: string, signal: ComplexSignal, spec: FixedPointSpec, complex: boolean): TableCase {
+function make(
+  label: string,
+  name: string,
+  role: string,
+  signal: ComplexSignal,
+  spec: FixedPointSpec,
+  complex: boolean,
+): TableCase {
   const q = quantize(signal, spec);
   const ctx = buildExportContext({
     project: { name: "Harbour Watch", slug: "harbour-watch" },
@@ -30,7 +37,12 @@ function make(label: string, name: string, role: string, signal: ComplexSignal, 
     complex,
     ...quantizedTableFields(signal, q),
   });
-  return { label, ctx, codesI: Array.from(q.re, (v) => v + 0), codesQ: Array.from(q.im, (v) => (complex ? v + 0 : 0)) };
+  return {
+    label,
+    ctx,
+    codesI: Array.from(q.re, (v) => v + 0),
+    codesQ: Array.from(q.im, (v) => (complex ? v + 0 : 0)),
+  };
 }
 
 const base = { signed: true, rounding: "nearest-even", overflow: "saturate" } as const;
@@ -39,12 +51,19 @@ const base = { signed: true, rounding: "nearest-even", overflow: "saturate" } as
 export function lfmCase(): TableCase {
   const s = linearFm({ bandwidthHz: 5e6, pulseWidthS: 10e-6, sampleRateHz: 10e6 });
   const h = matchedFilter(s, { kind: "hamming" });
-  return make("16-bit Hamming LFM matched filter", "Long pulse LFM", "rx", h, {
-    ...base,
-    wordLength: 16,
-    fractionLength: 15,
-    scaling: "full-scale",
-  }, true);
+  return make(
+    "16-bit Hamming LFM matched filter",
+    "Long pulse LFM",
+    "rx",
+    h,
+    {
+      ...base,
+      wordLength: 16,
+      fractionLength: 15,
+      scaling: "full-scale",
+    },
+    true,
+  );
 }
 
 /**
@@ -61,22 +80,36 @@ export function firCase(): TableCase {
   });
   const peak = Math.max(...taps);
   const re = Float64Array.from(taps, (v) => -v / peak);
-  return make("12-bit real FIR with −2048", "Decimation FIR 4:1", "fir", { re, im: new Float64Array(re.length) }, {
-    ...base,
-    wordLength: 12,
-    fractionLength: 11,
-    scaling: "as-given",
-  }, false);
+  return make(
+    "12-bit real FIR with −2048",
+    "Decimation FIR 4:1",
+    "fir",
+    { re, im: new Float64Array(re.length) },
+    {
+      ...base,
+      wordLength: 12,
+      fractionLength: 11,
+      scaling: "as-given",
+    },
+    false,
+  );
 }
 
 /** W = 32 edge words: the most negative and most positive 32-bit codes, −1 and 0 (hand-given values). */
 export function edge32Case(): TableCase {
   const values = [-1, 1 - 2 ** -31, -(2 ** -31), 0, 0.5];
   const re = Float64Array.from(values);
-  return make("32-bit edge words", "Edge words", "fir", { re, im: new Float64Array(re.length) }, {
-    ...base,
-    wordLength: 32,
-    fractionLength: 31,
-    scaling: "as-given",
-  }, false);
+  return make(
+    "32-bit edge words",
+    "Edge words",
+    "fir",
+    { re, im: new Float64Array(re.length) },
+    {
+      ...base,
+      wordLength: 32,
+      fractionLength: 31,
+      scaling: "as-given",
+    },
+    false,
+  );
 }
