@@ -5,6 +5,7 @@ import { openDatabase, runMigrations } from "./db/client";
 import { env } from "./env";
 import { jobsConfig } from "./jobs/config";
 import { startAnalysisWorker } from "./jobs/worker";
+import { startMail } from "./mail/runtime";
 
 // Start-up: read the environment, migrate, listen; stop cleanly on SIGINT/SIGTERM.
 const config = env();
@@ -24,6 +25,9 @@ const { app, close } = createApp({
   clientDist: config.CLIENT_DIST,
   logger,
 });
+
+// Mail: the loopback SMTP sink (development/tests) and the outbox dispatcher (issue 6).
+const mail = await startMail(config, database.db, logger);
 
 // Analysis worker in this process (the single-machine default); ANALYSIS_WORKER=off leaves the queue to
 // `npm run worker` processes on this or other machines.
@@ -51,12 +55,15 @@ function shutdown(signal: string): void {
   force.unref();
   server.close(() => {
     close();
-    Promise.resolve(workerStopped)
+    mail
+      .stop()
+      .catch(() => undefined)
+      .then(() => workerStopped)
       .then(() => database.pool.end())
       .then(
-      () => process.exit(0),
-      () => process.exit(1),
-    );
+        () => process.exit(0),
+        () => process.exit(1),
+      );
   });
   server.closeIdleConnections();
 }
