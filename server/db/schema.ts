@@ -6,3 +6,4 @@ export * from "./schema/designs";
 export * from "./schema/analyses";
 export * from "./schema/audit";
 export * from "./schema/mail";
+export * from "./schema/templates";
