@@ -24,14 +24,20 @@ function Navigation({ user }: { user: SessionUser }) {
         lastGroup = item.group;
         return (
           <Fragment key={item.to}>
-            {heading && <div className="mt-4 mb-1 px-2 text-[11px] font-semibold tracking-wider text-ink-300 uppercase">{heading}</div>}
+            {heading && (
+              <div className="mt-4 mb-1 px-2 text-[11px] font-semibold tracking-wider text-ink-300 uppercase">
+                {heading}
+              </div>
+            )}
             <NavLink
               to={item.to}
               end={item.end}
               className={({ isActive }) =>
                 cn(
                   "rounded px-2 py-1.5 text-sm",
-                  isActive ? "bg-ink-800 font-medium text-white shadow-[inset_2px_0_0] shadow-signal-300" : "text-ink-200 hover:bg-ink-800 hover:text-white",
+                  isActive
+                    ? "bg-ink-800 font-medium text-white shadow-[inset_2px_0_0] shadow-signal-300"
+                    : "text-ink-200 hover:bg-ink-800 hover:text-white",
                 )
               }
             >
@@ -76,25 +82,31 @@ export function Shell() {
   const user = me.data;
   return (
     <div className="flex min-h-screen">
-      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:z-50 focus:rounded focus:bg-paper-50 focus:px-3 focus:py-1.5">
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:z-50 focus:rounded focus:bg-paper-50 focus:px-3 focus:py-1.5"
+      >
         Skip to content
       </a>
-      <aside className="sticky top-0 flex h-screen w-52 shrink-0 flex-col bg-ink-900 text-ink-50">
-        <Link to="/" className="flex h-12 items-center px-4 text-white" aria-label="Tapwright home">
-          <Wordmark />
-        </Link>
-        <div className="flex-1 overflow-y-auto pt-2">
-          <Navigation user={user} />
-        </div>
-        <div className="border-t border-ink-800 px-3 py-2 text-[11px] text-ink-300">
-          <kbd className="rounded border border-ink-700 px-1 font-mono">/</kbd> search ·{" "}
-          <kbd className="rounded border border-ink-700 px-1 font-mono">g</kbd>{" "}
-          <kbd className="rounded border border-ink-700 px-1 font-mono">p</kbd> projects
-        </div>
-        <div className="border-t border-ink-800 p-2">
-          <UserMenu user={user} />
-        </div>
-      </aside>
+      {/* The outer column paints the full page height; the inner sidebar stays in view while the page scrolls. */}
+      <div className="w-52 shrink-0 bg-ink-900">
+        <aside className="sticky top-0 flex h-screen w-52 flex-col text-ink-50">
+          <Link to="/" className="flex h-12 items-center px-4 text-white" aria-label="Tapwright home">
+            <Wordmark />
+          </Link>
+          <div className="flex-1 overflow-y-auto pt-2">
+            <Navigation user={user} />
+          </div>
+          <div className="border-t border-ink-800 px-3 py-2 text-[11px] text-ink-300">
+            <kbd className="rounded border border-ink-700 px-1 font-mono">/</kbd> search ·{" "}
+            <kbd className="rounded border border-ink-700 px-1 font-mono">g</kbd>{" "}
+            <kbd className="rounded border border-ink-700 px-1 font-mono">p</kbd> projects
+          </div>
+          <div className="border-t border-ink-800 p-2">
+            <UserMenu user={user} />
+          </div>
+        </aside>
+      </div>
       <div className="flex min-w-0 flex-1 flex-col">
         {user.mustChangePassword && <MustChangeBanner />}
         <main id="main" className="mx-auto w-full max-w-6xl flex-1 px-6 py-5">
