@@ -1,4 +1,5 @@
 import "uplot/dist/uPlot.min.css";
+import "./plot.css";
 import { useEffect, useMemo, useRef, useState } from "react";
 import uPlot from "uplot";
 import { Button } from "@/components/ui/button";
