@@ -197,7 +197,7 @@ if (DEV) {
   });
   child.on("exit", (code) => {
     if (stopping) return;
-    process.stderr.write(`tapwright: the server stopped (exit code ${code}); is port ${port} already in use?\n`);
+    process.stderr.write(`tapwright: the server stopped (exit code ${code}); see the message above (is port ${port} in use?)\n`);
     finish(code || 1);
   });
   const shownHost = host === "0.0.0.0" ? "127.0.0.1" : host;
