@@ -2,6 +2,9 @@
  * A small pool of worker threads for `analyze`: heavy DSP never runs on the event loop that answers
  * requests or renews pg-boss leases. Threads start lazily and are replaced when one dies.
  */
+import { createRequire } from "node:module";
+import path from "node:path";
+import { pathToFileURL } from "node:url";
 import { Worker } from "node:worker_threads";
 import type { AnalysisReport } from "../../shared/dsp/analysis";
 import type { ThreadReply } from "./thread-protocol";
@@ -27,13 +30,13 @@ interface Slot {
   task: Task | null;
 }
 
-const THREAD_URL = new URL("./analysis-thread.ts", import.meta.url);
+const THREAD_URL = new URL("./analysis-thread.ts", import.meta.url).href;
+// tsx's ESM API file (its CommonJS twin cannot load the ESM half); tsx is pinned in package.json.
+const TSX_API = pathToFileURL(path.join(path.dirname(createRequire(import.meta.url).resolve("tsx/package.json")), "dist/esm/api/index.mjs")).href;
 
-// The thread file is TypeScript: under `node --import tsx` the flag is inherited; elsewhere (vitest) add it.
-function threadExecArgv(): string[] {
-  const argv = process.execArgv;
-  return argv.some((a) => a.includes("tsx")) ? argv : [...argv, "--import", "tsx"];
-}
+// Node 20 does not apply `--import tsx` hooks to a worker's entry file, so the thread starts from a line of
+// JavaScript that loads the TypeScript entry through tsx's API (works under npm start, npm run worker and vitest).
+const BOOT = `import(${JSON.stringify(TSX_API)}).then(({ tsImport }) => tsImport(${JSON.stringify(THREAD_URL)}, ${JSON.stringify(THREAD_URL)}))`;
 
 /** A fixed-size pool; `run` queues when every thread is busy. */
 export class AnalysisThreadPool {
@@ -74,7 +77,7 @@ export class AnalysisThreadPool {
   }
 
   private spawn(): Slot {
-    const worker = new Worker(THREAD_URL, { execArgv: threadExecArgv() });
+    const worker = new Worker(BOOT, { eval: true });
     const slot: Slot = { worker, task: null };
     worker.on("message", (m: ThreadReply) => {
       const task = slot.task;
