@@ -24,6 +24,7 @@ import { homeRoutes } from "./routes/home";
 import { projectRoutes } from "./routes/projects";
 import { designRoutes, projectDesignRoutes } from "./routes/designs";
 import { revisionRoutes } from "./routes/revisions";
+import { templateRoutes } from "./routes/templates";
 import { projectUploadRoutes, uploadRoutes } from "./routes/uploads";
 
 /** The session cookie's name (shared with the client's tests). */
@@ -150,6 +151,7 @@ export function createApp(deps: AppDeps): CreatedApp {
   api.use("/revisions", revisionRoutes(ctx));
   api.use("/revisions", analysisRoutes(ctx));
   api.use("/uploads", uploadRoutes(ctx));
+  api.use("/templates", templateRoutes(ctx));
   api.use("/admin/users", adminUserRoutes(ctx));
   api.use("/admin/audit.csv", auditCsvRoutes(ctx));
   api.use("/admin/audit", auditRoutes(ctx));

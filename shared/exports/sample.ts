@@ -7,10 +7,7 @@ import { matchedFilter } from "../dsp/matched-filter";
 import { quantize } from "../dsp/quantize";
 import type { ComplexSignal, FixedPointSpec } from "../dsp/types";
 import { buildExportContext, quantizedTableFields, type ExportContext } from "./context";
-
-/** The sample shapes a preview can ask for. */
-export const SAMPLE_KINDS = ["complex", "real"] as const;
-export type SampleKind = (typeof SAMPLE_KINDS)[number];
+import type { SampleKind } from "./sample-kinds";
 
 const META = {
   project: { name: "Harbour Watch sample", slug: "harbour-watch" },

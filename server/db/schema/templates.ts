@@ -44,5 +44,8 @@ export const exportTemplateVersions = pgTable(
       .references(() => users.id),
     savedAt: timestamp("saved_at", { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [primaryKey({ columns: [t.templateId, t.version] }), index("export_template_versions_saved_idx").on(t.savedAt)],
+  (t) => [
+    primaryKey({ columns: [t.templateId, t.version] }),
+    index("export_template_versions_saved_idx").on(t.savedAt),
+  ],
 );
