@@ -7,3 +7,4 @@ export * from "./schema/analyses";
 export * from "./schema/audit";
 export * from "./schema/mail";
 export * from "./schema/templates";
+export * from "./schema/reviews";
