@@ -17,6 +17,8 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { to: "/projects", label: "Projects", roles: [] },
   { to: "/account", label: "Account", roles: [] },
   { to: "/admin/users", label: "Users", roles: ["admin"], group: "Admin" },
+  { to: "/admin/audit", label: "Audit trail", roles: ["admin"], group: "Admin" },
+  { to: "/admin/mailbox", label: "Mailbox", roles: ["admin"], group: "Admin" },
 ];
 
 /** The entries a user with these roles may see, in order. */

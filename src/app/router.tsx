@@ -5,6 +5,8 @@ import { RevisionPage } from "@/features/revisions/components/revision-page";
 import { NewDesignPage } from "@/features/designs/components/new-design-page";
 import { ProjectPage } from "@/features/projects/components/project-page";
 import { ProjectsPage } from "@/features/projects/components/projects-page";
+import { AuditPage } from "@/features/audit/components/audit-page";
+import { MailboxPage } from "@/features/mailbox/components/mailbox-page";
 import { NotFoundRoute } from "./routes/not-found";
 import { AccountRoute, AdminUsersRoute, HomeRoute } from "./routes/pages";
 import { SignInRoute } from "./routes/sign-in";
@@ -25,6 +27,10 @@ export const router = createBrowserRouter([
       { path: "revisions/:id/report", element: <ReportPage /> },
       { path: "account", element: <AccountRoute /> },
       { path: "admin/users", element: <AdminUsersRoute /> },
+      // Admin only: the server answers 403 to anyone else and the pages show that error.
+      { path: "admin/audit", element: <AuditPage /> },
+      { path: "admin/mailbox", element: <MailboxPage /> },
+      { path: "admin/mailbox/:id", element: <MailboxPage /> },
       { path: "*", element: <NotFoundRoute /> },
     ],
   },
