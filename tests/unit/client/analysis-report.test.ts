@@ -135,7 +135,8 @@ describe("plots", () => {
     expect(mask.label).toBe("Stopband mask");
     // Stopband from cutoff + transition/2 = 15 MHz (docs/analysis.md): NaN (a gap) below, −55 dB from there on.
     const xs = resp!.x.values;
-    for (let i = 0; i < xs.length; i++) expect(Number.isNaN(mask.values[i]!) ? "gap" : mask.values[i]).toBe(xs[i]! >= 15e6 ? -55 : "gap");
+    expect(resp!.x.unit).toBe("MHz");
+    for (let i = 0; i < xs.length; i++) expect(Number.isNaN(mask.values[i]!) ? "gap" : mask.values[i]).toBe(xs[i]! >= 15 ? -55 : "gap");
     // Attenuation of a 60 dB Kaiser design: within 1 dB of 60 (O&S eqs. 7.92–7.93 design target).
     expect(fir.float.stopbandAttenuationDb!).toBeGreaterThan(59);
   });

@@ -25,9 +25,9 @@ export function LimitChipStrip({ groups }: { groups: { table: string; chips: Lim
   return (
     <div className="flex flex-col gap-1.5">
       {shown.map((g) => (
-        <div key={g.table} className="flex flex-wrap items-center gap-1.5">
-          <span className="w-8 font-mono text-xs font-semibold text-ink-700">{g.table}</span>
-          <ul className="flex flex-wrap gap-1.5" aria-label={`Limits of table ${g.table}`}>
+        <div key={g.table} className="flex items-start gap-1.5">
+          <span className="w-8 shrink-0 pt-0.5 font-mono text-xs font-semibold text-ink-700">{g.table}</span>
+          <ul className="flex min-w-0 flex-1 flex-wrap gap-1.5" aria-label={`Limits of table ${g.table}`}>
             {g.chips.map((c) => (
               <LimitChipView key={c.key} chip={c} />
             ))}

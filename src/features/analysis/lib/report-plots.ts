@@ -16,9 +16,9 @@ const f64 = (xs: ArrayLike<number | null>) => Float64Array.from(xs, (v) => (v ==
 const KNOWN: Record<string, { title: string; x: { label: string; unit: string }; y: { label: string; unit: string } }> = {
   compressed: { title: "Compressed output, full range", x: { label: "Delay from target", unit: "samples" }, y: { label: "Level re float peak", unit: "dB" } },
   mainlobe: { title: "Compressed output, mainlobe close-up", x: { label: "Delay from target", unit: "samples" }, y: { label: "Level re float peak", unit: "dB" } },
-  spectrum: { title: "Transmit spectrum", x: { label: "Frequency", unit: "Hz" }, y: { label: "Level re float peak", unit: "dB" } },
+  spectrum: { title: "Transmit spectrum", x: { label: "Frequency", unit: "MHz" }, y: { label: "Level re float peak", unit: "dB" } },
   doppler: { title: "Doppler cut", x: { label: "Delay from target", unit: "samples" }, y: { label: "Level re zero-Doppler float peak", unit: "dB" } },
-  response: { title: "FIR magnitude response", x: { label: "Frequency", unit: "Hz" }, y: { label: "Magnitude re passband", unit: "dB" } },
+  response: { title: "FIR magnitude response", x: { label: "Frequency", unit: "MHz" }, y: { label: "Magnitude re passband", unit: "dB" } },
 };
 
 /** Series names people read in a legend; float is the signal tone, fixed the copper one (UI.md). */
@@ -55,9 +55,16 @@ export function stopbandMasks(x: Float64Array, stopbands: readonly (readonly [nu
   }));
 }
 
+// Frequencies arrive in Hz; the axis reads better in MHz (values scaled, masks compared in Hz).
+const X_SCALE: Record<string, number> = { spectrum: 1e-6, response: 1e-6 };
+
 function seriesOf(trace: Record<string, unknown>, n: number, unit: string): PlotTrace[] {
   const series: PlotTrace[] = [];
-  for (const [field, v] of Object.entries(trace)) {
+  // Legend order: float, fixed (or I, Q), then anything else the server adds.
+  const known = Object.keys(SERIES);
+  const fields = Object.keys(trace).sort((a, b) => (known.indexOf(a) + 1 || 99) - (known.indexOf(b) + 1 || 99));
+  for (const field of fields) {
+    const v = trace[field];
     if (field === "x" || !isNumbers(v) || v.length !== n) continue;
     const s = SERIES[field] ?? { label: field, tone: "ink" as const };
     series.push({ label: s.label, unit, tone: s.tone, values: f64(v) });
@@ -80,7 +87,9 @@ export function tracePlots(report: Pick<AnalysisReport, "plots" | "limits" | "ki
     if (key === "compressed" || key === "mainlobe") series.push(...limitSeries(["pslDbMax"], report.limits, x.length, "dB"));
     const att = report.limits.find((c) => c.name === "stopbandAttenuationDbMin");
     if (key === "response" && att && report.firBands) series.push(...stopbandMasks(x, report.firBands.stopbands, att.limit));
-    plots.push({ key, title: known?.title ?? key, fileName: `report-${key}`, x: { ...(known?.x ?? { label: "x", unit: "" }), values: x }, series, yAxis: known?.y ?? { label: key, unit: "" } });
+    const scale = X_SCALE[key] ?? 1;
+    const xs = scale === 1 ? x : x.map((v) => v * scale);
+    plots.push({ key, title: known?.title ?? key, fileName: `report-${key}`, x: { ...(known?.x ?? { label: "x", unit: "" }), values: xs }, series, yAxis: known?.y ?? { label: key, unit: "" } });
   }
   for (const [role, trace] of Object.entries(report.coefficientErrorLsb ?? {})) {
     const x = f64(trace.x);
@@ -110,7 +119,8 @@ const SWEEP_GROUPS: Record<AnalysisReport["kind"], { key: string; title: string;
   ],
 };
 
-const TONES: PlotTrace["tone"][] = ["copper", "signal"];
+// Ink and copper, so the amber limit lines stand apart from the figures.
+const TONES: PlotTrace["tone"][] = ["ink", "copper"];
 
 /** The sweep as plots: figure vs W, the limits as lines, the smallest passing W marked. */
 export function sweepPlots(report: Pick<AnalysisReport, "sweep" | "limits" | "kind">): ReportPlot[] {
