@@ -8,3 +8,4 @@ export * from "./schema/audit";
 export * from "./schema/mail";
 export * from "./schema/templates";
 export * from "./schema/reviews";
+export * from "./schema/tokens";
