@@ -12,6 +12,7 @@ import { linePlot, type HLine, type Series } from "./svg-plot";
 import { REPORT_CSS } from "./style";
 
 const FLOOR_DB = -120;
+const hz = (v: number) => si(v, "Hz");
 
 function verdict(pass: boolean | null): string {
   if (pass === null) return `<td class="verdict">\u2014</td>`;
@@ -115,7 +116,7 @@ function plots(r: AnalysisReport): string {
     out.push(figure(linePlot({ title: "Mainlobe close-up", xLabel: "delay from the target (samples)", yLabel: "|y| (dB re float peak)", series: pair(p.mainlobe), hLines: psl, yFloor: FLOOR_DB, yMax: 3 }),
       `Mainlobe close-up at the full \u00d7${r.interpolation} resolution.`));
     if (p.spectrum)
-      out.push(figure(linePlot({ title: "Transmit spectrum", xLabel: "frequency (Hz)", yLabel: "|S(f)|\u00b2 (dB re float peak)", series: pair(p.spectrum), yFloor: FLOOR_DB, yMax: 3 }),
+      out.push(figure(linePlot({ title: "Transmit spectrum", xLabel: "frequency", xTick: hz, yLabel: "|S(f)|\u00b2 (dB re float peak)", series: pair(p.spectrum), yFloor: FLOOR_DB, yMax: 3 }),
         "Spectrum of the transmit table, float and fixed (zero-padded to the convolution length)."));
     if (p.doppler && r.doppler)
       out.push(figure(linePlot({ title: "Doppler cut", xLabel: "delay from the target (samples)", yLabel: "|y| (dB re zero-Doppler float peak)", series: pair(p.doppler), yFloor: FLOOR_DB, yMax: 3 }),
@@ -132,7 +133,7 @@ function plots(r: AnalysisReport): string {
         masks.push({ y: rip.limit / 2, label: "passband ripple mask", cls: "mask-line", x0: Math.max(0, b[0]), x1: b[1] });
         masks.push({ y: -rip.limit / 2, label: "passband ripple mask", cls: "mask-line", x0: Math.max(0, b[0]), x1: b[1] });
       }
-    out.push(figure(linePlot({ title: "FIR magnitude response", xLabel: "frequency (Hz)", yLabel: "|H(f)| (dB re passband)", series: pair(p.response), hLines: masks, yFloor: FLOOR_DB, yMax: 3 }),
+    out.push(figure(linePlot({ title: "FIR magnitude response", xLabel: "frequency", xTick: hz, yLabel: "|H(f)| (dB re passband)", series: pair(p.response), hLines: masks, yFloor: FLOOR_DB, yMax: 3 }),
       "Magnitude response, float and fixed, with the stopband mask (attenuation limit) and the passband ripple window (\u00b1 half the ripple limit)."));
   }
   for (const [role, t] of Object.entries(r.coefficientErrorLsb ?? {})) {

@@ -39,6 +39,8 @@ export interface PlotSpec {
   yFloor?: number;
   width?: number;
   height?: number;
+  /** Tick text of the x axis (default: a plain number). */
+  xTick?: (v: number) => string;
 }
 
 /** Tick values at 1, 2 or 5 × 10^k covering [lo, hi] with about `count` ticks. */
@@ -89,7 +91,7 @@ export function linePlot(p: PlotSpec): string {
   parts.push(`<rect class="plot-bg" x="${m.l}" y="${m.t}" width="${iw}" height="${ih}"/>`);
   for (const t of niceTicks(x0, x1)) {
     parts.push(`<line class="grid" x1="${sx(t)}" x2="${sx(t)}" y1="${m.t}" y2="${m.t + ih}"/>`);
-    parts.push(`<text class="tick" x="${sx(t)}" y="${m.t + ih + 14}" text-anchor="middle">${escapeHtml(plain(t))}</text>`);
+    parts.push(`<text class="tick" x="${sx(t)}" y="${m.t + ih + 14}" text-anchor="middle">${escapeHtml((p.xTick ?? plain)(t))}</text>`);
   }
   for (const t of niceTicks(y0, y1, 5)) {
     parts.push(`<line class="grid" x1="${m.l}" x2="${m.l + iw}" y1="${sy(t)}" y2="${sy(t)}"/>`);
