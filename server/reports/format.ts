@@ -27,7 +27,7 @@ const PREFIXES: [number, string][] = [
   [1e-12, "p"],
 ];
 
-/** An SI value with an engineering prefix and 4 significant digits, e.g. 1.25 µs, 10 MHz. */
+/** An SI value with an engineering prefix (digits as `plain`), e.g. 1.25 µs, 10 MHz. */
 export function si(v: number | null | undefined, unit: string): string {
   if (v === null || v === undefined) return "\u2014";
   if (v === 0) return `0 ${unit}`;
@@ -36,7 +36,7 @@ export function si(v: number | null | undefined, unit: string): string {
   return `${plain(v / scale)} ${prefix}${unit}`;
 }
 
-/** A plain number with up to 4 significant digits (integers in full). */
+/** A plain number: integers in full, else 4 decimals below 10, 3 below 100, 2 below 1000, 1 above; trailing zeros dropped. */
 export function plain(v: number | null | undefined): string {
   if (v === null || v === undefined) return "\u2014";
   if (Number.isInteger(v)) return fixed(v, 0);
