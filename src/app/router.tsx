@@ -7,6 +7,7 @@ import { ProjectPage } from "@/features/projects/components/project-page";
 import { ProjectsPage } from "@/features/projects/components/projects-page";
 import { AuditPage } from "@/features/audit/components/audit-page";
 import { MailboxPage } from "@/features/mailbox/components/mailbox-page";
+import { TemplateEditorRoute, TemplatesRoute } from "@/features/templates/components/template-routes";
 import { NotFoundRoute } from "./routes/not-found";
 import { AccountRoute, AdminUsersRoute, HomeRoute } from "./routes/pages";
 import { SignInRoute } from "./routes/sign-in";
@@ -25,6 +26,9 @@ export const router = createBrowserRouter([
       { path: "designs/:id", element: <DesignPage /> },
       { path: "revisions/:id", element: <RevisionPage /> },
       { path: "revisions/:id/report", element: <ReportPage /> },
+      { path: "templates", element: <TemplatesRoute /> },
+      { path: "templates/new", element: <TemplateEditorRoute /> },
+      { path: "templates/:id", element: <TemplateEditorRoute /> },
       { path: "account", element: <AccountRoute /> },
       { path: "admin/users", element: <AdminUsersRoute /> },
       // Admin only: the server answers 403 to anyone else and the pages show that error.
