@@ -8,6 +8,7 @@ import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { pinoHttp } from "pino-http";
 import pino, { type Logger } from "pino";
+import { bearerAuth } from "./auth/bearer";
 import { createPassport } from "./auth/passport";
 import type { Database } from "./db/client";
 import { apiNotFound, errorHandler } from "./http/errors";
@@ -23,8 +24,12 @@ import { healthRoutes } from "./routes/health";
 import { homeRoutes } from "./routes/home";
 import { projectRoutes } from "./routes/projects";
 import { designRoutes, projectDesignRoutes } from "./routes/designs";
+import { projectReleaseDownloadRoutes, releaseDownloadRoutes } from "./routes/downloads";
+import { designReleaseRoutes, releaseRoutes } from "./routes/releases";
+import { reviewQueueRoutes, revisionReviewRoutes } from "./routes/reviews";
 import { revisionRoutes } from "./routes/revisions";
 import { templateRoutes } from "./routes/templates";
+import { tokenRoutes } from "./routes/tokens";
 import { projectUploadRoutes, uploadRoutes } from "./routes/uploads";
 
 /** The session cookie's name (shared with the client's tests). */
@@ -141,17 +146,27 @@ export function createApp(deps: AppDeps): CreatedApp {
     signInLimitPerMinute: deps.signInLimitPerMinute ?? 10,
   };
   const api = express.Router();
+  // Bearer tokens act as their owner (read scope: GET/HEAD only); a bad token is 401 before any route.
+  api.use(bearerAuth(ctx.db));
   api.use("/health", healthRoutes(ctx));
   api.use("/auth", authRoutes(ctx));
   api.use("/account", accountRoutes(ctx));
   api.use("/projects", projectRoutes(ctx));
+  api.use("/projects/:slug/designs/:designName/releases", projectReleaseDownloadRoutes(ctx));
   api.use("/projects/:projectId/designs", projectDesignRoutes(ctx));
   api.use("/projects/:projectId/uploads", projectUploadRoutes(ctx));
   api.use("/designs", designRoutes(ctx));
+  api.use("/designs", designReleaseRoutes(ctx));
+  // Before the authoring routes: submit goes through the lifecycle table (issue 6).
+  api.use("/revisions", revisionReviewRoutes(ctx));
   api.use("/revisions", revisionRoutes(ctx));
+  api.use("/reviews", reviewQueueRoutes(ctx));
+  api.use("/releases", releaseRoutes(ctx));
+  api.use("/releases", releaseDownloadRoutes(ctx));
   api.use("/revisions", analysisRoutes(ctx));
   api.use("/uploads", uploadRoutes(ctx));
   api.use("/templates", templateRoutes(ctx));
+  api.use("/tokens", tokenRoutes(ctx));
   api.use("/admin/users", adminUserRoutes(ctx));
   api.use("/admin/audit.csv", auditCsvRoutes(ctx));
   api.use("/admin/audit", auditRoutes(ctx));

@@ -8,15 +8,10 @@ import { canAuthor, insertTables, revisionSummaries, tablesFor, visibleDesign, t
 import { uploadIdsOf } from "./materialize";
 import type { Viewer } from "./projects";
 import { recordAudit } from "./audit";
+import { STATE_WORDS } from "./lifecycle";
+import { revisionFacts, submitInTx } from "./reviews";
 import { uploadsByIds } from "./uploads";
 
-const STATE_WORDS: Record<RevisionState, string> = {
-  draft: "a draft",
-  in_review: "in review",
-  approved: "approved",
-  changes_requested: "closed with changes requested",
-  released: "released",
-};
 
 /** The 409 for any change to a revision past draft. */
 function frozen(number: number, state: RevisionState): HttpError {
@@ -167,14 +162,16 @@ export async function updateRevision(db: Db, viewer: Viewer, id: number, content
   return getRevision(db, viewer, id);
 }
 
-/** Fix the content hash and move a draft to in_review. */
+/**
+ * Fix the content hash and move a draft to in_review through the lifecycle table (issue 6): only an author,
+ * only from draft, and only with a finished report for exactly the content being fixed; audited and mailed.
+ */
 export async function submitRevision(db: Db, viewer: Viewer, id: number): Promise<RevisionDetail> {
-  const { row, design, project } = await visibleRevision(db, viewer, id);
-  if (row.state !== "draft") throw frozen(row.number, row.state);
+  await revisionFacts(db, viewer, id); // non-members get 404 before any other answer
   await db.transaction(async (tx) => {
-    const locked = await revisionRow(tx, id, true);
+    const facts = await revisionFacts(tx, viewer, id, true);
+    const locked = await revisionRow(tx, id);
     if (!locked) throw new HttpError("not_found", "No such revision");
-    if (locked.state !== "draft") throw frozen(locked.number, locked.state);
     const tables = await tx
       .select({
         role: coefficientTables.role,
@@ -185,23 +182,7 @@ export async function submitRevision(db: Db, viewer: Viewer, id: number): Promis
       })
       .from(coefficientTables)
       .where(eq(coefficientTables.revisionId, id));
-    await tx
-      .update(revisions)
-      .set({
-        state: "in_review",
-        contentHash: contentHash(locked.content, tables),
-        submittedById: viewer.id,
-        submittedAt: new Date(),
-      })
-      .where(eq(revisions.id, id));
-    await recordAudit(tx, {
-      action: "revision.submit",
-      projectId: project.id,
-      subjectType: "revision",
-      subjectId: id,
-      summary: `Submitted r${locked.number} of ${design.name} for review`,
-      details: { designId: design.id, number: locked.number, contentHash: contentHash(locked.content, tables) },
-    });
+    await submitInTx(tx, viewer, facts, contentHash(locked.content, tables));
   });
   return getRevision(db, viewer, id);
 }
