@@ -28,8 +28,11 @@ describe("admin audit trail and mailbox", () => {
 
     await page.getByLabel("Action").selectOption("auth.sign-in");
     await page.waitForURL(/[?&]action=auth\.sign-in(&|$)/);
+    // The previous page stays on screen while the filtered one loads (aria-busy): wait for the new rows.
+    await page.locator('[data-testid="audit-results"][aria-busy="false"]').waitFor();
     const rows = table.getByRole("row");
     const count = await rows.count();
+    expect(count).toBeGreaterThan(1);
     for (let i = 1; i < count; i += 1) expect(await rows.nth(i).textContent()).toContain("auth.sign-in");
     const href = await page.getByRole("link", { name: "Export CSV" }).getAttribute("href");
     expect(href).toBe("/api/admin/audit.csv?action=auth.sign-in");
@@ -89,6 +92,12 @@ describe("admin audit trail and mailbox", () => {
     await signIn(page, DEMO.reviewer.username, DEMO.reviewer.password, DEMO.reviewer.displayName);
     expect(await page.getByRole("link", { name: "Audit trail" }).count()).toBe(0);
     await page.goto("/admin/audit");
-    await page.getByRole("alert").filter({ hasText: "forbidden" }).first().waitFor();
+    await page.getByRole("heading", { name: "Audit trail" }).waitFor();
+    const refusal = page.getByRole("alert").filter({ hasText: "This needs the admin role" }).first();
+    await refusal.waitFor({ timeout: 10_000 }).catch(async (err: unknown) => {
+      await screenshot(page, "admin-audit-refused-debug");
+      throw new Error(`${String(err)}\n${await page.locator("main").innerText()}`);
+    });
+    await screenshot(page, "admin-audit-refused");
   });
 });

@@ -45,57 +45,30 @@ export function AuditPage() {
         className="mb-4 grid grid-cols-2 gap-3 md:grid-cols-6"
         onSubmit={(e) => e.preventDefault()}
       >
-        <Field label="Project">
-          {({ id }) => (
-            <select
-              id={id}
-              className={SELECT}
-              value={state.projectId}
-              onChange={(e) => set({ projectId: e.target.value })}
-            >
-              <option value="">Any project</option>
-              {options.data?.projects.map((p) => (
-                <option key={p.id} value={String(p.id)}>
-                  {p.name}
-                </option>
-              ))}
-            </select>
-          )}
-        </Field>
-        <Field label="User">
-          {({ id }) => (
-            <select
-              id={id}
-              className={SELECT}
-              value={state.userId}
-              onChange={(e) => set({ userId: e.target.value })}
-            >
-              <option value="">Anyone</option>
-              {options.data?.users.map((u) => (
-                <option key={u.id} value={String(u.id)}>
-                  {u.username}
-                </option>
-              ))}
-            </select>
-          )}
-        </Field>
-        <Field label="Action">
-          {({ id }) => (
-            <select
-              id={id}
-              className={SELECT}
-              value={state.action}
-              onChange={(e) => set({ action: e.target.value })}
-            >
-              <option value="">Any action</option>
-              {areas(options.data?.actions ?? []).map((a) => (
-                <option key={a} value={a}>
-                  {a.endsWith(".") ? `${a}* (all)` : a}
-                </option>
-              ))}
-            </select>
-          )}
-        </Field>
+        <FilterSelect
+          label="Project"
+          anyLabel="Any project"
+          value={state.projectId}
+          onChange={(v) => set({ projectId: v })}
+          options={options.data?.projects.map((p) => ({ value: String(p.id), label: p.name })) ?? []}
+        />
+        <FilterSelect
+          label="User"
+          anyLabel="Anyone"
+          value={state.userId}
+          onChange={(v) => set({ userId: v })}
+          options={options.data?.users.map((u) => ({ value: String(u.id), label: u.username })) ?? []}
+        />
+        <FilterSelect
+          label="Action"
+          anyLabel="Any action"
+          value={state.action}
+          onChange={(v) => set({ action: v })}
+          options={areas(options.data?.actions ?? []).map((a) => ({
+            value: a,
+            label: a.endsWith(".") ? `${a}* (all)` : a,
+          }))}
+        />
         <Field label="From (day)">
           {({ id }) => (
             <Input id={id} type="date" value={state.from} onChange={(e) => set({ from: e.target.value })} />
@@ -129,7 +102,11 @@ export function AuditPage() {
             : "Sign-ins and changes appear here as they happen."}
         </EmptyState>
       ) : (
-        <>
+        <div
+          data-testid="audit-results"
+          aria-busy={page.isPlaceholderData}
+          className={page.isPlaceholderData ? "opacity-60" : undefined}
+        >
           <Table label="Audit events">
             <thead>
               <tr>
@@ -172,9 +149,38 @@ export function AuditPage() {
               Older
             </Button>
           </nav>
-        </>
+        </div>
       )}
     </div>
+  );
+}
+
+/** A labelled select whose first choice ("any") clears the filter. */
+function FilterSelect(props: {
+  label: string;
+  anyLabel: string;
+  value: string;
+  onChange: (value: string) => void;
+  options: readonly { value: string; label: string }[];
+}) {
+  return (
+    <Field label={props.label}>
+      {({ id }) => (
+        <select
+          id={id}
+          className={SELECT}
+          value={props.value}
+          onChange={(e) => props.onChange(e.target.value)}
+        >
+          <option value="">{props.anyLabel}</option>
+          {props.options.map((o) => (
+            <option key={o.value} value={o.value}>
+              {o.label}
+            </option>
+          ))}
+        </select>
+      )}
+    </Field>
   );
 }
 
