@@ -20,7 +20,9 @@ export const barker13 = {
   tx: { kind: "phase-code", code: { kind: "barker", length: 13 }, sampleRateHz: 1e6 },
   fixedPoint: { tx: { wordLength: 16, fractionLength: 15 }, rx: { wordLength: 16, fractionLength: 15 } },
   // Barker-13 PSL is 20·log10(1/13) = −22.28 dB (sidelobes of 1 against a peak of 13; Barker, 1953, from memory);
-  // a −25 dB limit therefore fails, so the queue has a failing metric to show.
+  // a −25 dB limit therefore fails, so the queue has a failing metric to show. Interpolation 1 measures the
+  // samples themselves (a ×8 interpolation shows the higher peaks between chips).
+  interpolation: 1,
   limits: { pslDbMax: -25 },
 };
 
