@@ -3,9 +3,10 @@
  * the W = 6…24 sweep on 65,536 samples, and bit-true golden vectors (1,024 and 4,096 complex taps over
  * 16,384 samples); peak RSS sampled. Prints a table and writes docs/benchmarks.md.
  */
-import { execSync } from "node:child_process";
+import { execFileSync, execSync } from "node:child_process";
 import { readFileSync, writeFileSync } from "node:fs";
 import { cpus } from "node:os";
+import { fileURLToPath } from "node:url";
 import { analyze } from "../shared/dsp/analysis";
 import { bitTrueFilter } from "../shared/dsp/bit-true";
 import { createRng } from "../shared/dsp/random";
@@ -80,3 +81,9 @@ try {
 }
 const head = doc.includes(marker) ? doc.slice(0, doc.indexOf(marker) + marker.length) : `${doc}\n${marker}`;
 writeFileSync(docUrl, `${head}\n\nLast run (\`npm run bench\`): ${machine}.\n\n${table}\n`);
+
+// The API and analysis-queue figures (own PostgreSQL cluster and server); they write their own section above.
+// `npm run bench -- --dsp-only` skips them.
+if (!process.argv.includes("--dsp-only")) {
+  execFileSync(process.execPath, ["--import", "tsx", fileURLToPath(new URL("./bench-api.ts", import.meta.url))], { stdio: "inherit" });
+}
