@@ -35,7 +35,7 @@ export const FILTER_METRICS: readonly MetricDef[] = [
   { key: "passbandRippleDb", label: "Passband ripple (peak-to-peak)", unit: "dB", limit: "passbandRippleDbMax" },
   { key: "passbandGainDb", label: "Passband gain", unit: "dB" },
   { key: "dcGainDb", label: "DC gain", unit: "dB" },
-  { key: "dcGain", label: "DC gain", unit: "ratio" },
+  { key: "dcGain", label: "DC gain (ratio)", unit: "ratio" },
 ];
 
 /** Names of the limits as a sentence fragment, and whether the figure must stay below (max) or above (min). */

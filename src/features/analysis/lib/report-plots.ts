@@ -98,7 +98,8 @@ export function tracePlots(report: Pick<AnalysisReport, "plots" | "limits" | "ki
       title: `Coefficient error, table ${role}`,
       fileName: `report-coefficient-error-${role}`,
       x: { label: "Coefficient index", unit: "", values: x },
-      series: seriesOf(trace as unknown as Record<string, unknown>, x.length, "LSB"),
+      // A real table's Q error is identically zero: leave it out rather than draw a flat line.
+      series: seriesOf(trace as unknown as Record<string, unknown>, x.length, "LSB").filter((t) => t.label !== "Q" || t.values.some((v) => v !== 0)),
       yAxis: { label: "ĥ − g·h", unit: "LSB" },
     });
   }
