@@ -28,12 +28,17 @@ describe("admin audit trail and mailbox", () => {
 
     await page.getByLabel("Action").selectOption("auth.sign-in");
     await page.waitForURL(/[?&]action=auth\.sign-in(&|$)/);
-    // The previous page stays on screen while the filtered one loads (aria-busy): wait for the new rows.
+    // The previous page stays on screen (aria-busy) while the filtered one loads: poll until it is replaced.
+    await expect
+      .poll(
+        async () => {
+          const texts = await table.locator("tbody tr").allTextContents();
+          return texts.length > 0 && texts.every((t) => t.includes("auth.sign-in"));
+        },
+        { timeout: 15_000 },
+      )
+      .toBe(true);
     await page.locator('[data-testid="audit-results"][aria-busy="false"]').waitFor();
-    const rows = table.getByRole("row");
-    const count = await rows.count();
-    expect(count).toBeGreaterThan(1);
-    for (let i = 1; i < count; i += 1) expect(await rows.nth(i).textContent()).toContain("auth.sign-in");
     const href = await page.getByRole("link", { name: "Export CSV" }).getAttribute("href");
     expect(href).toBe("/api/admin/audit.csv?action=auth.sign-in");
     const csv = await page.request.get(href ?? "");
@@ -42,7 +47,7 @@ describe("admin audit trail and mailbox", () => {
 
     // A shared link reproduces the view.
     await page.reload();
-    expect(await page.getByLabel("Action").inputValue()).toBe("auth.sign-in");
+    await expect.poll(() => page.getByLabel("Action").inputValue(), { timeout: 10_000 }).toBe("auth.sign-in");
     await screenshot(page, "admin-audit-trail");
     await expectAccessible(page, "audit trail");
   });

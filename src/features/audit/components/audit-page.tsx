@@ -64,10 +64,12 @@ export function AuditPage() {
           anyLabel="Any action"
           value={state.action}
           onChange={(v) => set({ action: v })}
-          options={areas(options.data?.actions ?? []).map((a) => ({
-            value: a,
-            label: a.endsWith(".") ? `${a}* (all)` : a,
-          }))}
+          options={areas([...(options.data?.actions ?? []), ...(state.action ? [state.action] : [])]).map(
+            (a) => ({
+              value: a,
+              label: a.endsWith(".") ? `${a}* (all)` : a,
+            }),
+          )}
         />
         <Field label="From (day)">
           {({ id }) => (
