@@ -52,6 +52,7 @@ function demoContent(bandwidthHz: number) {
 class Client {
   cookie = "";
   constructor(readonly base: string) {}
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any -- a bench script reads a few known fields
   async req(method: string, url: string, body?: unknown): Promise<{ status: number; json: any }> {
     const res = await fetch(this.base + url, {
       method,
@@ -66,7 +67,8 @@ class Client {
 }
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
-const quantile = (sorted: number[], q: number) => sorted[Math.min(sorted.length - 1, Math.ceil(q * sorted.length) - 1)]!;
+const quantile = (sorted: number[], q: number) =>
+  sorted[Math.min(sorted.length - 1, Math.ceil(q * sorted.length) - 1)]!;
 
 async function main(): Promise<void> {
   const pgPort = await freePort();
@@ -75,8 +77,18 @@ async function main(): Promise<void> {
   if (started.status !== 0 || !url) throw new Error("could not start a PostgreSQL cluster for the API bench");
   let server: ChildProcess | undefined;
   try {
-    const env = { ...process.env, DATABASE_URL: url, NODE_ENV: "development", SESSION_SECRET: "bench-only-secret-0123456789", LOG_LEVEL: "warn" };
-    const seeded = spawnSync(process.execPath, ["--import", "tsx", "server/db/seed-cli.ts", "--migrate"], { cwd: ROOT, env, encoding: "utf8" });
+    const env = {
+      ...process.env,
+      DATABASE_URL: url,
+      NODE_ENV: "development",
+      SESSION_SECRET: "bench-only-secret-0123456789",
+      LOG_LEVEL: "warn",
+    };
+    const seeded = spawnSync(process.execPath, ["--import", "tsx", "server/db/seed-cli.ts", "--migrate"], {
+      cwd: ROOT,
+      env,
+      encoding: "utf8",
+    });
     if (seeded.status !== 0) throw new Error(`seed failed: ${seeded.stderr}`);
     const port = await freePort();
     server = spawn(process.execPath, ["--import", "tsx", "server/index.ts"], {
@@ -94,17 +106,24 @@ async function main(): Promise<void> {
       }
       await sleep(100);
     }
-    const signIn = await c.req("POST", "/api/auth/sign-in", { username: "author", password: "tapwright-author" });
+    const signIn = await c.req("POST", "/api/auth/sign-in", {
+      username: "author",
+      password: "tapwright-author",
+    });
     if (signIn.status !== 200) throw new Error(`sign-in failed: ${JSON.stringify(signIn.json)}`);
     const projects = (await c.req("GET", "/api/projects")).json.projects as { id: number; slug: string }[];
     const pid = projects.find((p) => p.slug === "coastwatch-s")!.id;
     let n = 0;
     const design = async () => {
-      const r = await c.req("POST", `/api/projects/${pid}/designs`, { name: `bench ${++n}`, content: demoContent(10e6 - n * 1e3) });
+      const r = await c.req("POST", `/api/projects/${pid}/designs`, {
+        name: `bench ${++n}`,
+        content: demoContent(10e6 - n * 1e3),
+      });
       if (r.status !== 201) throw new Error(`design: ${JSON.stringify(r.json)}`);
       return r.json.revision.id as number;
     };
-    const state = async (id: number) => (await c.req("GET", `/api/revisions/${id}/analysis`)).json.analysis?.state as string | undefined;
+    const state = async (id: number) =>
+      (await c.req("GET", `/api/revisions/${id}/analysis`)).json.analysis?.state as string | undefined;
 
     // 1. POST → done, one at a time.
     const times: number[] = [];
@@ -145,7 +164,8 @@ async function main(): Promise<void> {
         lat[p]!.push(performance.now() - s);
       }
       await sleep(10);
-      if (++polls % 20 === 0) pending = (await Promise.all(ids.map(state))).filter((s) => s !== "done" && s !== "failed").length;
+      if (++polls % 20 === 0)
+        pending = (await Promise.all(ids.map(state))).filter((s) => s !== "done" && s !== "failed").length;
     }
     const window = performance.now() - t0;
 
@@ -188,7 +208,9 @@ async function main(): Promise<void> {
     }
     const start = doc.indexOf("<!-- bench-api:start -->");
     const end = doc.indexOf("<!-- bench-api:end -->");
-    if (start >= 0 && end > start) doc = doc.slice(0, start) + section + doc.slice(end + "<!-- bench-api:end -->".length).replace(/^\n/, "");
+    if (start >= 0 && end > start)
+      doc =
+        doc.slice(0, start) + section + doc.slice(end + "<!-- bench-api:end -->".length).replace(/^\n/, "");
     else {
       // Above the DSP results marker: scripts/bench.ts rewrites everything after its marker.
       const marker = doc.indexOf("<!-- bench:results -->");

@@ -30,7 +30,11 @@ export interface AttemptInfo {
 }
 
 /** Run one job; resolves when the row is done or failed for good, rejects to ask pg-boss for a retry. */
-export async function runAnalysisJob(deps: AnalysisJobDeps, data: AnalysisJobData, attempt: AttemptInfo): Promise<void> {
+export async function runAnalysisJob(
+  deps: AnalysisJobDeps,
+  data: AnalysisJobData,
+  attempt: AttemptInfo,
+): Promise<void> {
   const { db, logger } = deps;
   const hash = data.contentHash;
   if (!(await markRunning(db, hash))) {
@@ -46,7 +50,10 @@ export async function runAnalysisJob(deps: AnalysisJobDeps, data: AnalysisJobDat
       return await fail("The draft changed after this analysis was requested: request the analysis again");
     let spec: unknown;
     try {
-      spec = toAnalysisSpec(input.content, input.tables.map((t) => ({ role: t.role, ...decodeValues(t.values) })));
+      spec = toAnalysisSpec(
+        input.content,
+        input.tables.map((t) => ({ role: t.role, ...decodeValues(t.values) })),
+      );
     } catch (e) {
       return await fail(describeAnalysisError(e));
     }
@@ -60,7 +67,9 @@ export async function runAnalysisJob(deps: AnalysisJobDeps, data: AnalysisJobDat
       const now = performance.now();
       if (finished || now - last < interval) return;
       last = now;
-      writing = writing.then(() => (finished ? undefined : markProgress(db, hash, fraction, stage))).catch(() => undefined);
+      writing = writing
+        .then(() => (finished ? undefined : markProgress(db, hash, fraction, stage)))
+        .catch(() => undefined);
     };
     try {
       const report = await deps.threads.run(spec, onProgress);

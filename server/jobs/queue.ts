@@ -29,7 +29,10 @@ export function bossOver(pool: pg.Pool, options: Omit<PgBoss.ConstructorOptions,
  * (the content hash), so duplicate sends collapse; retries and expiry make a killed worker's job run again.
  * The first creator's settings stay (pg-boss's create is ON CONFLICT DO NOTHING).
  */
-export async function ensureAnalysisQueue(boss: PgBoss, config: Pick<JobsConfig, "ANALYSIS_EXPIRE_SECONDS" | "ANALYSIS_RETRY_LIMIT">): Promise<void> {
+export async function ensureAnalysisQueue(
+  boss: PgBoss,
+  config: Pick<JobsConfig, "ANALYSIS_EXPIRE_SECONDS" | "ANALYSIS_RETRY_LIMIT">,
+): Promise<void> {
   await boss.createQueue(ANALYSIS_QUEUE, {
     name: ANALYSIS_QUEUE,
     policy: "stately",

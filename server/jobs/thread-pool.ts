@@ -32,7 +32,12 @@ interface Slot {
 
 const THREAD_URL = new URL("./analysis-thread.ts", import.meta.url).href;
 // tsx's ESM API file (its CommonJS twin cannot load the ESM half); tsx is pinned in package.json.
-const TSX_API = pathToFileURL(path.join(path.dirname(createRequire(import.meta.url).resolve("tsx/package.json")), "dist/esm/api/index.mjs")).href;
+const TSX_API = pathToFileURL(
+  path.join(
+    path.dirname(createRequire(import.meta.url).resolve("tsx/package.json")),
+    "dist/esm/api/index.mjs",
+  ),
+).href;
 
 // Node 20 does not apply `--import tsx` hooks to a worker's entry file, so the thread starts from a line of
 // JavaScript that loads the TypeScript entry through tsx's API (works under npm start, npm run worker and vitest).
@@ -46,11 +51,15 @@ export class AnalysisThreadPool {
   private closed = false;
 
   constructor(readonly size: number) {
-    if (!Number.isInteger(size) || size < 1) throw new RangeError(`pool size must be a positive integer, got ${size}`);
+    if (!Number.isInteger(size) || size < 1)
+      throw new RangeError(`pool size must be a positive integer, got ${size}`);
   }
 
   /** Analyse `spec` in a thread; progress arrives as the DSP core reports it. */
-  run(spec: unknown, onProgress: (fraction: number, stage: string) => void = () => {}): Promise<AnalysisReport> {
+  run(
+    spec: unknown,
+    onProgress: (fraction: number, stage: string) => void = () => {},
+  ): Promise<AnalysisReport> {
     if (this.closed) return Promise.reject(new Error("the analysis thread pool is closed"));
     return new Promise((resolve, reject) => {
       this.waiting.push({ id: this.nextId++, spec, onProgress, resolve, reject });

@@ -30,7 +30,8 @@ export function describeAnalysisError(e: unknown): string {
     });
     return `The analysis spec is not valid: ${lines.join("; ")}`;
   }
-  if (e instanceof RangeError || e instanceof TypeError) return `The analysis refused its input: ${e.message}`;
+  if (e instanceof RangeError || e instanceof TypeError)
+    return `The analysis refused its input: ${e.message}`;
   if (e instanceof Error) return e.message;
   return String(e);
 }

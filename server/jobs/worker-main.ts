@@ -12,7 +12,12 @@ const config = env();
 const jobs = jobsConfig();
 const logger = pino({ level: config.NODE_ENV === "test" ? "warn" : config.LOG_LEVEL });
 const database = openDatabase(config.DATABASE_URL, Math.max(4, jobs.ANALYSIS_THREADS + 3));
-const worker = await startAnalysisWorker({ database, config: jobs, softwareVersion: config.TAPWRIGHT_VERSION, logger });
+const worker = await startAnalysisWorker({
+  database,
+  config: jobs,
+  softwareVersion: config.TAPWRIGHT_VERSION,
+  logger,
+});
 
 let stopping = false;
 async function shutdown(signal: string): Promise<void> {

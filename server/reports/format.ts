@@ -41,6 +41,9 @@ export function plain(v: number | null | undefined): string {
   if (v === null || v === undefined) return "\u2014";
   if (Number.isInteger(v)) return fixed(v, 0);
   const a = Math.abs(v);
-  const digits = a >= 1000 ? 1 : a >= 100 ? 2 : a >= 10 ? 3 : a >= 1 ? 4 : Math.min(8, 3 - Math.floor(Math.log10(a)));
-  return fixed(Number(v.toFixed(digits)), digits).replace(/(\.\d*?)0+$/, "$1").replace(/\.$/, "");
+  const digits =
+    a >= 1000 ? 1 : a >= 100 ? 2 : a >= 10 ? 3 : a >= 1 ? 4 : Math.min(8, 3 - Math.floor(Math.log10(a)));
+  return fixed(Number(v.toFixed(digits)), digits)
+    .replace(/(\.\d*?)0+$/, "$1")
+    .replace(/\.$/, "");
 }

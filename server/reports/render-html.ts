@@ -55,7 +55,9 @@ function qFormat(t: TableReport): string {
 
 function tablesTable(r: AnalysisReport): string {
   const rows = r.tables.map(
-    (t) => `<tr><th scope="row">${e(t.role)}</th><td class="num">${e(plain(t.length))}</td><td>${t.complex ? "complex" : "real"}</td>
+    (
+      t,
+    ) => `<tr><th scope="row">${e(t.role)}</th><td class="num">${e(plain(t.length))}</td><td>${t.complex ? "complex" : "real"}</td>
 <td>${e(qFormat(t))}</td><td>${e(`${t.fixedPoint.scaling}, ${t.fixedPoint.rounding}, ${t.fixedPoint.overflow}`)}</td>
 <td class="num">${e(plain(t.gain))}</td><td class="num">${e(plain(t.overflowCount))}</td>
 <td class="num">${e(formatMetric("coefficientSqnrDb", t.coefficientSqnrDb))}</td>
@@ -75,7 +77,9 @@ function accumulatorText(r: AnalysisReport): string {
 worst-case sum needs <b class="num">${e(a.worstCaseBits)} bits</b> (input bits + coefficient bits + \u2308log2 \u03a3|\u0125|\u2309);
 use an accumulator of at least <b class="num">${e(a.recommendedBits)} bits</b> so no sum can overflow.</p>`;
     });
-  return lines.length ? lines.join("\n") : "<p>No accumulator figure: the receive table is unsigned or absent.</p>";
+  return lines.length
+    ? lines.join("\n")
+    : "<p>No accumulator figure: the receive table is unsigned or absent.</p>";
 }
 
 function dopplerTable(r: AnalysisReport): string {
@@ -111,41 +115,136 @@ function plots(r: AnalysisReport): string {
   const p = r.plots;
   if (r.kind === "waveform") {
     const psl = limitLine(r, "pslDbMax", "PSL limit");
-    out.push(figure(linePlot({ title: "Compressed output", xLabel: "delay from the target (samples)", yLabel: "|y| (dB re float peak)", series: pair(p.compressed), hLines: psl, yFloor: FLOOR_DB, yMax: 3 }),
-      "Compressed output, float and fixed overlaid (min/max envelope per column), dB relative to the float peak."));
-    out.push(figure(linePlot({ title: "Mainlobe close-up", xLabel: "delay from the target (samples)", yLabel: "|y| (dB re float peak)", series: pair(p.mainlobe), hLines: psl, yFloor: FLOOR_DB, yMax: 3 }),
-      `Mainlobe close-up at the full \u00d7${r.interpolation} resolution.`));
+    out.push(
+      figure(
+        linePlot({
+          title: "Compressed output",
+          xLabel: "delay from the target (samples)",
+          yLabel: "|y| (dB re float peak)",
+          series: pair(p.compressed),
+          hLines: psl,
+          yFloor: FLOOR_DB,
+          yMax: 3,
+        }),
+        "Compressed output, float and fixed overlaid (min/max envelope per column), dB relative to the float peak.",
+      ),
+    );
+    out.push(
+      figure(
+        linePlot({
+          title: "Mainlobe close-up",
+          xLabel: "delay from the target (samples)",
+          yLabel: "|y| (dB re float peak)",
+          series: pair(p.mainlobe),
+          hLines: psl,
+          yFloor: FLOOR_DB,
+          yMax: 3,
+        }),
+        `Mainlobe close-up at the full \u00d7${r.interpolation} resolution.`,
+      ),
+    );
     if (p.spectrum)
-      out.push(figure(linePlot({ title: "Transmit spectrum", xLabel: "frequency", xTick: hz, yLabel: "|S(f)|\u00b2 (dB re float peak)", series: pair(p.spectrum), yFloor: FLOOR_DB, yMax: 3 }),
-        "Spectrum of the transmit table, float and fixed (zero-padded to the convolution length)."));
+      out.push(
+        figure(
+          linePlot({
+            title: "Transmit spectrum",
+            xLabel: "frequency",
+            xTick: hz,
+            yLabel: "|S(f)|\u00b2 (dB re float peak)",
+            series: pair(p.spectrum),
+            yFloor: FLOOR_DB,
+            yMax: 3,
+          }),
+          "Spectrum of the transmit table, float and fixed (zero-padded to the convolution length).",
+        ),
+      );
     if (p.doppler && r.doppler)
-      out.push(figure(linePlot({ title: "Doppler cut", xLabel: "delay from the target (samples)", yLabel: "|y| (dB re zero-Doppler float peak)", series: pair(p.doppler), yFloor: FLOOR_DB, yMax: 3 }),
-        `Compressed output of an echo shifted by ${si(r.doppler.float.dopplerHz, "Hz")}, float and fixed.`));
+      out.push(
+        figure(
+          linePlot({
+            title: "Doppler cut",
+            xLabel: "delay from the target (samples)",
+            yLabel: "|y| (dB re zero-Doppler float peak)",
+            series: pair(p.doppler),
+            yFloor: FLOOR_DB,
+            yMax: 3,
+          }),
+          `Compressed output of an echo shifted by ${si(r.doppler.float.dopplerHz, "Hz")}, float and fixed.`,
+        ),
+      );
   } else if (p.response) {
     const bands = r.firBands;
     const masks: HLine[] = [];
     const att = r.limits.find((l) => l.name === "stopbandAttenuationDbMin");
     const rip = r.limits.find((l) => l.name === "passbandRippleDbMax");
     for (const b of bands?.stopbands ?? [])
-      if (att) masks.push({ y: -att.limit, label: "stopband mask", cls: "limit-line", x0: Math.max(0, b[0]), x1: b[1] });
+      if (att)
+        masks.push({
+          y: -att.limit,
+          label: "stopband mask",
+          cls: "limit-line",
+          x0: Math.max(0, b[0]),
+          x1: b[1],
+        });
     for (const b of bands?.passbands ?? [])
       if (rip) {
-        masks.push({ y: rip.limit / 2, label: "passband ripple mask", cls: "mask-line", x0: Math.max(0, b[0]), x1: b[1] });
-        masks.push({ y: -rip.limit / 2, label: "passband ripple mask", cls: "mask-line", x0: Math.max(0, b[0]), x1: b[1] });
+        masks.push({
+          y: rip.limit / 2,
+          label: "passband ripple mask",
+          cls: "mask-line",
+          x0: Math.max(0, b[0]),
+          x1: b[1],
+        });
+        masks.push({
+          y: -rip.limit / 2,
+          label: "passband ripple mask",
+          cls: "mask-line",
+          x0: Math.max(0, b[0]),
+          x1: b[1],
+        });
       }
-    out.push(figure(linePlot({ title: "FIR magnitude response", xLabel: "frequency", xTick: hz, yLabel: "|H(f)| (dB re passband)", series: pair(p.response), hLines: masks, yFloor: FLOOR_DB, yMax: 3 }),
-      "Magnitude response, float and fixed, with the stopband mask (attenuation limit) and the passband ripple window (\u00b1 half the ripple limit)."));
+    out.push(
+      figure(
+        linePlot({
+          title: "FIR magnitude response",
+          xLabel: "frequency",
+          xTick: hz,
+          yLabel: "|H(f)| (dB re passband)",
+          series: pair(p.response),
+          hLines: masks,
+          yFloor: FLOOR_DB,
+          yMax: 3,
+        }),
+        "Magnitude response, float and fixed, with the stopband mask (attenuation limit) and the passband ripple window (\u00b1 half the ripple limit).",
+      ),
+    );
   }
   for (const [role, t] of Object.entries(r.coefficientErrorLsb ?? {})) {
     const series: Series[] = [{ x: t.x, y: t.re, label: "I error", cls: "float" }];
     if (t.im.some((v) => v !== 0)) series.push({ x: t.x, y: t.im, label: "Q error", cls: "fixed" });
-    out.push(figure(linePlot({ title: `Coefficient error, ${role}`, xLabel: "coefficient index", yLabel: "error (LSB)", series }),
-      `Quantization error of table ${role} in LSB of its format, (\u0125 \u2212 g\u00b7h)\u00b72^F; within \u00b10.5 LSB when nothing overflows.`));
+    out.push(
+      figure(
+        linePlot({
+          title: `Coefficient error, ${role}`,
+          xLabel: "coefficient index",
+          yLabel: "error (LSB)",
+          series,
+        }),
+        `Quantization error of table ${role} in LSB of its format, (\u0125 \u2212 g\u00b7h)\u00b72^F; within \u00b10.5 LSB when nothing overflows.`,
+      ),
+    );
   }
   return out.join("\n");
 }
 
-const SWEEP_FIGURES = ["pslDb", "islrDb", "stopbandAttenuationDb", "passbandRippleDb", "coefficientSqnrDb", "peakLossDb"] as const;
+const SWEEP_FIGURES = [
+  "pslDb",
+  "islrDb",
+  "stopbandAttenuationDb",
+  "passbandRippleDb",
+  "coefficientSqnrDb",
+  "peakLossDb",
+] as const;
 const SWEEP_LIMIT: Record<string, string> = {
   pslDb: "pslDbMax",
   islrDb: "islrDbMax",
@@ -163,15 +262,37 @@ function sweepSection(r: AnalysisReport): string {
   const figs = SWEEP_FIGURES.filter((k) => s.rows.some((row) => typeof row.figures[k] === "number"));
   const svgs = figs.map((k) => {
     const pts = s.rows.filter((row) => typeof row.figures[k] === "number");
-    const series: Series[] = [{ x: pts.map((row) => row.wordLength), y: pts.map((row) => row.figures[k]!), label: labelOf(k), cls: "fixed", markers: true }];
+    const series: Series[] = [
+      {
+        x: pts.map((row) => row.wordLength),
+        y: pts.map((row) => row.figures[k]!),
+        label: labelOf(k),
+        cls: "fixed",
+        markers: true,
+      },
+    ];
     const vLines = best === null ? [] : [{ x: best, label: `recommended W = ${best}`, cls: "best" }];
-    return figure(linePlot({ title: `${labelOf(k)} vs word length`, xLabel: "word length W (bits)", yLabel: "dB", series, hLines: limitLine(r, SWEEP_LIMIT[k]!, "limit"), vLines, height: 200 }),
-      `${labelOf(k)} against W (${s.tables.join(", ")} swept; integer bits W \u2212 F kept).`);
+    return figure(
+      linePlot({
+        title: `${labelOf(k)} vs word length`,
+        xLabel: "word length W (bits)",
+        yLabel: "dB",
+        series,
+        hLines: limitLine(r, SWEEP_LIMIT[k]!, "limit"),
+        vLines,
+        height: 200,
+      }),
+      `${labelOf(k)} against W (${s.tables.join(", ")} swept; integer bits W \u2212 F kept).`,
+    );
   });
   const head = figs.map((k) => `<th scope="col">${e(labelOf(k))}</th>`).join("");
   const rows = s.rows
-    .map((row) => `<tr${row.wordLength === best ? ' class="best"' : ""}><th scope="row" class="num">${e(row.wordLength)}</th>
-${figs.map((k) => `<td class="num">${e(formatMetric(k, row.figures[k]))}</td>`).join("")}<td>${e(row.method)}</td>${verdict(row.pass)}</tr>`)
+    .map(
+      (
+        row,
+      ) => `<tr${row.wordLength === best ? ' class="best"' : ""}><th scope="row" class="num">${e(row.wordLength)}</th>
+${figs.map((k) => `<td class="num">${e(formatMetric(k, row.figures[k]))}</td>`).join("")}<td>${e(row.method)}</td>${verdict(row.pass)}</tr>`,
+    )
     .join("\n");
   return `<h2>Bit-width sweep</h2>
 <p>Word lengths ${e(Math.min(...ws))} to ${e(Math.max(...ws))} on table(s) ${e(s.tables.join(", "))}. ${
@@ -200,18 +321,23 @@ function assumptions(r: AnalysisReport): string {
 }
 
 function definitions(r: AnalysisReport): string {
-  const rows = Object.entries(r.definitions).map(([k, v]) => `<dt>${e(labelOf(k))} <span class="key">${e(k)}</span></dt><dd>${e(v)}</dd>`);
+  const rows = Object.entries(r.definitions).map(
+    ([k, v]) => `<dt>${e(labelOf(k))} <span class="key">${e(k)}</span></dt><dd>${e(v)}</dd>`,
+  );
   return `<dl>${rows.join("")}</dl>`;
 }
 
 /** Render the printable report page. */
 export function renderReportHtml(header: ReportHeader, report: AnalysisReport): string {
-  const failing = report.limits.filter((c) => !c.pass).map((c) => labelOf(LIMIT_METRIC[c.name]?.metric ?? c.name));
-  const overall = report.limits.length === 0
-    ? `<p class="banner none">No acceptance limits were set: nothing was judged.</p>`
-    : report.pass
-      ? `<p class="banner pass">All ${report.limits.length} acceptance limits pass.</p>`
-      : `<p class="banner fail">${failing.length} of ${report.limits.length} acceptance limits fail: ${e(failing.join(", "))}.</p>`;
+  const failing = report.limits
+    .filter((c) => !c.pass)
+    .map((c) => labelOf(LIMIT_METRIC[c.name]?.metric ?? c.name));
+  const overall =
+    report.limits.length === 0
+      ? `<p class="banner none">No acceptance limits were set: nothing was judged.</p>`
+      : report.pass
+        ? `<p class="banner pass">All ${report.limits.length} acceptance limits pass.</p>`
+        : `<p class="banner fail">${failing.length} of ${report.limits.length} acceptance limits fail: ${e(failing.join(", "))}.</p>`;
   const headerRows: [string, string][] = [
     ["Project", header.project],
     ["Design", header.design],

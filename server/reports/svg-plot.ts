@@ -50,7 +50,8 @@ export function niceTicks(lo: number, hi: number, count = 6): number[] {
   const mag = 10 ** Math.floor(Math.log10(raw));
   const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw) ?? 10 * mag;
   const out: number[] = [];
-  for (let v = Math.ceil(lo / step) * step; v <= hi + step * 1e-9; v += step) out.push(Math.abs(v) < step * 1e-9 ? 0 : v);
+  for (let v = Math.ceil(lo / step) * step; v <= hi + step * 1e-9; v += step)
+    out.push(Math.abs(v) < step * 1e-9 ? 0 : v);
   return out;
 }
 
@@ -86,25 +87,41 @@ export function linePlot(p: PlotSpec): string {
   const sx = (x: number) => r2(m.l + ((x - x0) / (x1 - x0 || 1)) * iw);
   const sy = (y: number) => r2(m.t + (1 - (Math.min(Math.max(y, y0), y1) - y0) / (y1 - y0)) * ih);
   const parts: string[] = [];
-  parts.push(`<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" role="img" aria-label="${escapeHtml(p.title)}">`);
+  parts.push(
+    `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" role="img" aria-label="${escapeHtml(p.title)}">`,
+  );
   parts.push(`<title>${escapeHtml(p.title)}</title>`);
   parts.push(`<rect class="plot-bg" x="${m.l}" y="${m.t}" width="${iw}" height="${ih}"/>`);
   for (const t of niceTicks(x0, x1)) {
     parts.push(`<line class="grid" x1="${sx(t)}" x2="${sx(t)}" y1="${m.t}" y2="${m.t + ih}"/>`);
-    parts.push(`<text class="tick" x="${sx(t)}" y="${m.t + ih + 14}" text-anchor="middle">${escapeHtml((p.xTick ?? plain)(t))}</text>`);
+    parts.push(
+      `<text class="tick" x="${sx(t)}" y="${m.t + ih + 14}" text-anchor="middle">${escapeHtml((p.xTick ?? plain)(t))}</text>`,
+    );
   }
   for (const t of niceTicks(y0, y1, 5)) {
     parts.push(`<line class="grid" x1="${m.l}" x2="${m.l + iw}" y1="${sy(t)}" y2="${sy(t)}"/>`);
-    parts.push(`<text class="tick" x="${m.l - 6}" y="${sy(t) + 3}" text-anchor="end">${escapeHtml(plain(t))}</text>`);
+    parts.push(
+      `<text class="tick" x="${m.l - 6}" y="${sy(t) + 3}" text-anchor="end">${escapeHtml(plain(t))}</text>`,
+    );
   }
-  parts.push(`<text class="axis" x="${m.l + iw / 2}" y="${H - 6}" text-anchor="middle">${escapeHtml(p.xLabel)}</text>`);
-  parts.push(`<text class="axis" transform="translate(12 ${m.t + ih / 2}) rotate(-90)" text-anchor="middle">${escapeHtml(p.yLabel)}</text>`);
-  parts.push(`<clipPath id="c${W}x${H}"><rect x="${m.l}" y="${m.t}" width="${iw}" height="${ih}"/></clipPath><g clip-path="url(#c${W}x${H})">`);
+  parts.push(
+    `<text class="axis" x="${m.l + iw / 2}" y="${H - 6}" text-anchor="middle">${escapeHtml(p.xLabel)}</text>`,
+  );
+  parts.push(
+    `<text class="axis" transform="translate(12 ${m.t + ih / 2}) rotate(-90)" text-anchor="middle">${escapeHtml(p.yLabel)}</text>`,
+  );
+  parts.push(
+    `<clipPath id="c${W}x${H}"><rect x="${m.l}" y="${m.t}" width="${iw}" height="${ih}"/></clipPath><g clip-path="url(#c${W}x${H})">`,
+  );
   for (const s of p.series) {
     if (s.markers) {
-      s.x.forEach((x, i) => parts.push(`<circle class="pt ${escapeHtml(s.cls)}" cx="${sx(x)}" cy="${sy(s.y[i]!)}" r="2.6"/>`));
+      s.x.forEach((x, i) =>
+        parts.push(`<circle class="pt ${escapeHtml(s.cls)}" cx="${sx(x)}" cy="${sy(s.y[i]!)}" r="2.6"/>`),
+      );
       if (s.x.length > 1)
-        parts.push(`<polyline class="line thin ${escapeHtml(s.cls)}" points="${s.x.map((x, i) => `${sx(x)},${sy(s.y[i]!)}`).join(" ")}"/>`);
+        parts.push(
+          `<polyline class="line thin ${escapeHtml(s.cls)}" points="${s.x.map((x, i) => `${sx(x)},${sy(s.y[i]!)}`).join(" ")}"/>`,
+        );
       continue;
     }
     const pts = s.x.map((x, i) => `${sx(x)},${sy(s.y[i]!)}`).join(" ");
@@ -113,10 +130,14 @@ export function linePlot(p: PlotSpec): string {
   for (const h of p.hLines ?? []) {
     const a = sx(h.x0 ?? x0);
     const b = sx(h.x1 ?? x1);
-    parts.push(`<line class="limit ${escapeHtml(h.cls)}" x1="${a}" x2="${b}" y1="${sy(h.y)}" y2="${sy(h.y)}"/>`);
+    parts.push(
+      `<line class="limit ${escapeHtml(h.cls)}" x1="${a}" x2="${b}" y1="${sy(h.y)}" y2="${sy(h.y)}"/>`,
+    );
   }
   for (const v of p.vLines ?? []) {
-    parts.push(`<line class="marker ${escapeHtml(v.cls)}" x1="${sx(v.x)}" x2="${sx(v.x)}" y1="${m.t}" y2="${m.t + ih}"/>`);
+    parts.push(
+      `<line class="marker ${escapeHtml(v.cls)}" x1="${sx(v.x)}" x2="${sx(v.x)}" y1="${m.t}" y2="${m.t + ih}"/>`,
+    );
     parts.push(`<text class="marker-label" x="${sx(v.x) + 4}" y="${m.t + 12}">${escapeHtml(v.label)}</text>`);
   }
   parts.push("</g>");
@@ -127,7 +148,9 @@ export function linePlot(p: PlotSpec): string {
     ...(p.hLines ?? []).map((h) => ({ label: h.label, cls: h.cls, kind: "limit" })),
   ].filter((e, i, all) => all.findIndex((o) => o.label === e.label) === i);
   for (const e of legend) {
-    parts.push(`<line class="${e.kind} ${escapeHtml(e.cls)}" x1="${lx}" x2="${lx + 18}" y1="${m.t - 10}" y2="${m.t - 10}"/>`);
+    parts.push(
+      `<line class="${e.kind} ${escapeHtml(e.cls)}" x1="${lx}" x2="${lx + 18}" y1="${m.t - 10}" y2="${m.t - 10}"/>`,
+    );
     parts.push(`<text class="legend" x="${lx + 22}" y="${m.t - 6}">${escapeHtml(e.label)}</text>`);
     lx += 30 + 6.2 * e.label.length;
   }

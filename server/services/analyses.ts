@@ -65,7 +65,12 @@ export type SendAnalysis = (data: { contentHash: string; revisionId: number }) =
  * POST /api/revisions/:id/analysis: enqueue the analysis of the revision's current content unless it is
  * already queued, running or done; a failed one is queued again.
  */
-export async function requestAnalysis(db: Db, viewer: Viewer, revisionId: number, send: SendAnalysis): Promise<AnalysisStatus> {
+export async function requestAnalysis(
+  db: Db,
+  viewer: Viewer,
+  revisionId: number,
+  send: SendAnalysis,
+): Promise<AnalysisStatus> {
   await getRevision(db, viewer, revisionId); // membership: non-members get 404
   const hash = await currentContentHash(db, revisionId);
   const [inserted] = await db
@@ -78,7 +83,16 @@ export async function requestAnalysis(db: Db, viewer: Viewer, revisionId: number
   if (row.state === "failed") {
     const [requeued] = await db
       .update(analysisReports)
-      .set({ state: "queued", progress: 0, stage: null, error: null, queuedAt: new Date(), startedAt: null, finishedAt: null, durationMs: null })
+      .set({
+        state: "queued",
+        progress: 0,
+        stage: null,
+        error: null,
+        queuedAt: new Date(),
+        startedAt: null,
+        finishedAt: null,
+        durationMs: null,
+      })
       .where(and(eq(analysisReports.id, row.id), eq(analysisReports.state, "failed")))
       .returning();
     row = requeued ?? row;
@@ -89,7 +103,11 @@ export async function requestAnalysis(db: Db, viewer: Viewer, revisionId: number
 }
 
 /** GET /api/revisions/:id/analysis: the analysis of the revision's current content, or null. */
-export async function getAnalysis(db: Db, viewer: Viewer, revisionId: number): Promise<AnalysisStatus | null> {
+export async function getAnalysis(
+  db: Db,
+  viewer: Viewer,
+  revisionId: number,
+): Promise<AnalysisStatus | null> {
   await getRevision(db, viewer, revisionId);
   const row = await rowByHash(db, await currentContentHash(db, revisionId));
   return row ? toStatus(row) : null;
@@ -105,7 +123,10 @@ export async function getReportDocument(
   const hash = await currentContentHash(db, revisionId);
   const row = await rowByHash(db, hash);
   if (!row || row.state !== "done" || !row.report || !row.finishedAt)
-    throw new HttpError("not_found", "This revision's content has no finished analysis yet: run the analysis first");
+    throw new HttpError(
+      "not_found",
+      "This revision's content has no finished analysis yet: run the analysis first",
+    );
   return {
     header: {
       project: detail.project.name,
@@ -122,7 +143,10 @@ export async function getReportDocument(
 
 /** What the worker needs of a revision: content, tables with their stored values, and the hash now. */
 export async function loadRevisionForJob(db: Db, revisionId: number) {
-  const [rev] = await db.select({ content: revisions.content }).from(revisions).where(eq(revisions.id, revisionId));
+  const [rev] = await db
+    .select({ content: revisions.content })
+    .from(revisions)
+    .where(eq(revisions.id, revisionId));
   if (!rev) return undefined;
   const tables = await db
     .select()
@@ -145,7 +169,12 @@ export async function markRunning(db: Db, hash: string): Promise<boolean> {
       finishedAt: null,
       attempts: sql`${analysisReports.attempts} + 1`,
     })
-    .where(and(eq(analysisReports.contentHash, hash), inArray(analysisReports.state, ["queued", "running", "failed"])))
+    .where(
+      and(
+        eq(analysisReports.contentHash, hash),
+        inArray(analysisReports.state, ["queued", "running", "failed"]),
+      ),
+    )
     .returning({ id: analysisReports.id });
   return rows.length === 1;
 }
@@ -159,7 +188,13 @@ export async function markProgress(db: Db, hash: string, progress: number, stage
 }
 
 /** Worker: store the finished report. */
-export async function markDone(db: Db, hash: string, report: AnalysisReport, softwareVersion: string, startedMs: number): Promise<void> {
+export async function markDone(
+  db: Db,
+  hash: string,
+  report: AnalysisReport,
+  softwareVersion: string,
+  startedMs: number,
+): Promise<void> {
   await db
     .update(analysisReports)
     .set({
@@ -176,7 +211,12 @@ export async function markDone(db: Db, hash: string, report: AnalysisReport, sof
 }
 
 /** Worker: record why an analysis failed (never overwrites a stored report). */
-export async function markFailed(db: Db, hash: string, reason: string, softwareVersion: string): Promise<void> {
+export async function markFailed(
+  db: Db,
+  hash: string,
+  reason: string,
+  softwareVersion: string,
+): Promise<void> {
   await db
     .update(analysisReports)
     .set({ state: "failed", error: reason, stage: null, finishedAt: new Date(), softwareVersion })

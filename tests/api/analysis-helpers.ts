@@ -16,7 +16,13 @@ export const taylorLfm = {
   rx: { window: { kind: "taylor", nbar: 5, sidelobeDb: -35 } },
   fixedPoint: { tx: { wordLength: 14, fractionLength: 13 }, rx: { wordLength: 12, fractionLength: 11 } },
   dopplerHz: 5000,
-  limits: { pslDbMax: -33, islrDbMax: -22, mismatchLossDbMax: 1.5, peakLossDbMax: 0.1, coefficientSqnrDbMin: 60 },
+  limits: {
+    pslDbMax: -33,
+    islrDbMax: -22,
+    mismatchLossDbMax: 1.5,
+    peakLossDbMax: 0.1,
+    coefficientSqnrDbMin: 60,
+  },
   sweep: { minBits: 6, maxBits: 16 },
 };
 
@@ -36,7 +42,9 @@ let n = 0;
 /** Create a design in a project (by slug) as `agent`; returns its r1 draft's id. */
 export async function newDesign(t: ApiTestContext, agent: Agent, content: object, slug = "coastwatch-s") {
   const pid = await projectId(t.app, slug);
-  const res = await agent.post(`/api/projects/${pid}/designs`).send({ name: `analysis test ${process.pid}-${++n}`, content });
+  const res = await agent
+    .post(`/api/projects/${pid}/designs`)
+    .send({ name: `analysis test ${process.pid}-${++n}`, content });
   expect(res.status, JSON.stringify(res.body)).toBe(201);
   return CreatedDesignSchema.parse(res.body);
 }
@@ -48,7 +56,12 @@ export function testJobsConfig(over: Partial<Record<keyof JobsConfig, string>> =
 
 /** An in-process worker over the test database. */
 export function testWorker(database: Database, config = testJobsConfig()): Promise<AnalysisWorker> {
-  return startAnalysisWorker({ database, config, softwareVersion: "test-worker", logger: pino({ level: process.env.TEST_WORKER_LOG ?? "silent" }) });
+  return startAnalysisWorker({
+    database,
+    config,
+    softwareVersion: "test-worker",
+    logger: pino({ level: process.env.TEST_WORKER_LOG ?? "silent" }),
+  });
 }
 
 /** GET the analysis until `until` holds (or the time runs out). */
@@ -64,7 +77,8 @@ export async function pollAnalysis(
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     const a = AnalysisResponseSchema.parse(res.body).analysis;
     if (until(a)) return a;
-    if (Date.now() > deadline) throw new Error(`analysis still ${JSON.stringify(a && { ...a, report: undefined })}`);
+    if (Date.now() > deadline)
+      throw new Error(`analysis still ${JSON.stringify(a && { ...a, report: undefined })}`);
     await new Promise((r) => setTimeout(r, 100));
   }
 }

@@ -16,7 +16,14 @@ failOnConsoleError();
 /** docs/analysis.md worked example 2: a 60 dB Kaiser low-pass FIR, 16-bit. */
 const firLowpass = {
   kind: "filter",
-  fir: { kind: "design", band: "lowpass", sampleRateHz: 100e6, cutoffHz: 12.5e6, transitionHz: 5e6, stopbandAttenuationDb: 60 },
+  fir: {
+    kind: "design",
+    band: "lowpass",
+    sampleRateHz: 100e6,
+    cutoffHz: 12.5e6,
+    transitionHz: 5e6,
+    stopbandAttenuationDb: 60,
+  },
   fixedPoint: { fir: { wordLength: 16, fractionLength: 15 } },
   limits: { stopbandAttenuationDbMin: 55, passbandRippleDbMax: 0.05 },
   sweep: { minBits: 6, maxBits: 18 },
@@ -30,7 +37,15 @@ beforeAll(async () => {
   browser = await chromium.launch({
     executablePath: "/usr/bin/chromium",
     headless: true,
-    args: ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
+    args: [
+      "--no-sandbox",
+      "--disable-gpu",
+      "--disable-quic",
+      "--no-first-run",
+      "--disable-background-networking",
+      "--disable-component-update",
+      "--disable-sync",
+    ],
   });
   author = await signedIn(t.app, "author");
 });
@@ -55,7 +70,9 @@ describe.each([
     const { revision } = await newDesign(t, author, content);
     expect((await author.post(`/api/revisions/${revision.id}/analysis`)).status).toBe(202);
     await pollAnalysis(author, revision.id, (a) => a?.state === "done");
-    const doc = ReportDocumentSchema.parse((await author.get(`/api/revisions/${revision.id}/report.json`)).body);
+    const doc = ReportDocumentSchema.parse(
+      (await author.get(`/api/revisions/${revision.id}/report.json`)).body,
+    );
     const html = (await author.get(`/api/revisions/${revision.id}/report.html`)).text;
 
     const context = await browser.newContext();
@@ -72,10 +89,12 @@ describe.each([
 
     const text = pdfText(pdf);
     for (const [k, v] of Object.entries(doc.header)) expect(text, `header ${k}`).toContain(squash(v));
-    for (const label of ["Project", "Design", "Revision", "Contenthash", "Generatedat", "Softwareversion"]) expect(text).toContain(label);
+    for (const label of ["Project", "Design", "Revision", "Contenthash", "Generatedat", "Softwareversion"])
+      expect(text).toContain(label);
     for (const key of Object.keys(doc.report.fixed)) expect(text, key).toContain(squash(METRIC_LABELS[key]!));
     expect(text).toContain(squash(METRIC_LABELS.coefficientSqnrDb!));
-    for (const c of doc.report.limits) expect(text, c.name).toContain(squash(METRIC_LABELS[c.name.replace(/(Max|Min)$/, "")]!));
+    for (const c of doc.report.limits)
+      expect(text, c.name).toContain(squash(METRIC_LABELS[c.name.replace(/(Max|Min)$/, "")]!));
     expect(doc.report.pass).toBe(true);
     expect(text).toContain(`All${doc.report.limits.length}acceptancelimitspass.`);
   }, 120_000);

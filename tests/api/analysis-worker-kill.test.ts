@@ -46,15 +46,27 @@ it("a job whose worker was SIGKILLed mid-analysis is retried by another worker a
   expect((await author.post(`/api/revisions/${revision.id}/analysis`)).status).toBe(202);
 
   const first = startWorker();
-  const running = await pollAnalysis(author, revision.id, (a) => a?.state === "running" && a.progress > 0, 60_000);
+  const running = await pollAnalysis(
+    author,
+    revision.id,
+    (a) => a?.state === "running" && a.progress > 0,
+    60_000,
+  );
   expect(running!.state).toBe("running");
   first.kill("SIGKILL");
   await once(first, "exit");
-  const job = await t.database.pool.query<{ state: string }>("select state from pgboss.job where name = 'analysis'");
+  const job = await t.database.pool.query<{ state: string }>(
+    "select state from pgboss.job where name = 'analysis'",
+  );
   expect(job.rows.map((r) => r.state)).toEqual(["active"]);
 
   const second = startWorker();
-  const done = await pollAnalysis(author, revision.id, (a) => a?.state === "done" || a?.state === "failed", 100_000);
+  const done = await pollAnalysis(
+    author,
+    revision.id,
+    (a) => a?.state === "done" || a?.state === "failed",
+    100_000,
+  );
   expect(done!.state, done!.error ?? "").toBe("done");
   expect(done!.report!.tables.map((x) => x.role)).toEqual(["tx", "rx"]);
   const row = await t.database.pool.query<{ attempts: number }>("select attempts from analysis_reports");

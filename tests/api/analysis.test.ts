@@ -26,13 +26,18 @@ afterAll(async () => {
 });
 
 const jobCount = async () =>
-  (await t.database.pool.query<{ n: number }>("select count(*)::int as n from pgboss.job where name = 'analysis'")).rows[0]!.n;
+  (
+    await t.database.pool.query<{ n: number }>(
+      "select count(*)::int as n from pgboss.job where name = 'analysis'",
+    )
+  ).rows[0]!.n;
 
 /** The report the DSP core computes for the revision's stored content and tables. */
 async function expectedReport(agent: Agent, revisionId: number): Promise<AnalysisReport> {
   const detail = RevisionDetailSchema.parse((await agent.get(`/api/revisions/${revisionId}`)).body);
   const tables = [];
-  for (const table of detail.tables) tables.push({ role: table.role, ...(await tableValues(agent, revisionId, table.id)) });
+  for (const table of detail.tables)
+    tables.push({ role: table.role, ...(await tableValues(agent, revisionId, table.id)) });
   // Through JSON, as the report is stored (jsonb) and served.
   return JSON.parse(JSON.stringify(analyze(toAnalysisSpec(detail.content, tables)))) as AnalysisReport;
 }
@@ -78,7 +83,10 @@ describe("an analysis runs as a job and stores the DSP core's report", () => {
     expect(r2.status, JSON.stringify(r2.body)).toBe(201);
     const r2Id = (r2.body as { revision: { id: number } }).revision.id;
     const reused = await author.post(`/api/revisions/${r2Id}/analysis`);
-    expect(AnalysisResponseSchema.parse(reused.body).analysis).toMatchObject({ state: "done", report: expected });
+    expect(AnalysisResponseSchema.parse(reused.body).analysis).toMatchObject({
+      state: "done",
+      report: expected,
+    });
     expect(await countRows(t.database.pool, "analysis_reports")).toBe(rows);
     expect(await jobCount()).toBe(jobs);
     expect(jobs).toBe(1);
@@ -89,7 +97,12 @@ describe("an analysis runs as a job and stores the DSP core's report", () => {
     expect(res.status).toBe(200);
     const doc = ReportDocumentSchema.parse(res.body);
     const detail = RevisionDetailSchema.parse((await author.get(`/api/revisions/${revisionId}`)).body);
-    expect(doc.header).toMatchObject({ project: detail.project.name, design: detail.design.name, revision: "r1", softwareVersion: "test-worker" });
+    expect(doc.header).toMatchObject({
+      project: detail.project.name,
+      design: detail.design.name,
+      revision: "r1",
+      softwareVersion: "test-worker",
+    });
     expect(doc.header.contentHash).toMatch(/^[0-9a-f]{64}$/);
     expect(res.body.report).toEqual(expected);
   });
@@ -99,13 +112,16 @@ describe("an analysis runs as a job and stores the DSP core's report", () => {
     expect(res.status).toBe(200);
     expect(res.headers["content-type"]).toMatch(/^text\/html/);
     const html = res.text;
-    const doc = ReportDocumentSchema.parse((await author.get(`/api/revisions/${revisionId}/report.json`)).body);
+    const doc = ReportDocumentSchema.parse(
+      (await author.get(`/api/revisions/${revisionId}/report.json`)).body,
+    );
     for (const v of Object.values(doc.header)) expect(html).toContain(v);
     for (const key of Object.keys(expected.fixed)) {
       expect(html).toContain(key);
       expect(html).toContain(METRIC_LABELS[key]!.replace(/&/g, "&amp;").replace(/\|/g, "|"));
     }
-    for (const key of ["pslDb", "islrDb", "mismatchLossDb"]) expect(html).toContain(printDb(expected.fixed[key]));
+    for (const key of ["pslDb", "islrDb", "mismatchLossDb"])
+      expect(html).toContain(printDb(expected.fixed[key]));
     expect(html).toContain(`W = ${expected.sweep!.smallestPassingWordLength}`);
     expect(html).toMatch(/white noise/);
     expect(html).toContain(`U = ${expected.interpolation}`);
@@ -121,7 +137,10 @@ describe("failures and access", () => {
     const author = await signedIn(t.app, "author");
     const { revision } = await newDesign(t, author, taylorLfm);
     // Injected: a draft whose stored content the DSP's spec schema refuses (interpolation 99 > 16).
-    await t.database.pool.query(`update revisions set content = jsonb_set(content, '{interpolation}', '99') where id = $1`, [revision.id]);
+    await t.database.pool.query(
+      `update revisions set content = jsonb_set(content, '{interpolation}', '99') where id = $1`,
+      [revision.id],
+    );
     expect((await author.post(`/api/revisions/${revision.id}/analysis`)).status).toBe(202);
     const failed = (await pollAnalysis(author, revision.id, (a) => a?.state === "failed"))!;
     expect(failed.error).toMatch(/^The analysis spec is not valid: interpolation: /);

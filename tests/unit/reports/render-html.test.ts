@@ -12,7 +12,7 @@ import { renderReportHtml } from "../../../server/reports/render-html";
 import { linePlot, niceTicks } from "../../../server/reports/svg-plot";
 
 const header = {
-  project: "Coastwatch <S-band> & \"trials\"",
+  project: 'Coastwatch <S-band> & "trials"',
   design: "long-pulse chirp 'A'",
   revision: "r2",
   contentHash: "0123456789abcdef".repeat(4),
@@ -54,7 +54,14 @@ describe("formats", () => {
 
 describe("linePlot", () => {
   it("maps data to the viewBox: the first point at the left edge, the maximum at the top", () => {
-    const svg = linePlot({ title: "t <1>", xLabel: "x", yLabel: "y", series: [{ x: [0, 1, 2], y: [0, 10, 5], label: "a&b", cls: "float" }], width: 200, height: 100 });
+    const svg = linePlot({
+      title: "t <1>",
+      xLabel: "x",
+      yLabel: "y",
+      series: [{ x: [0, 1, 2], y: [0, 10, 5], label: "a&b", cls: "float" }],
+      width: 200,
+      height: 100,
+    });
     // margins l 58, r 12, t 26, b 40 → inner 130 × 34; y range 0…10.
     expect(svg).toContain('points="58,60 123,26 188,43"');
     expect(svg).toContain("t &lt;1&gt;");
@@ -68,7 +75,14 @@ describe("analyze() plot data for the report", () => {
 
   it("coefficient error in LSB equals (ĥ − g·h)·2^F from the quantizer, within ±0.5 LSB", () => {
     const s = linearFm({ bandwidthHz: 2e6, pulseWidthS: 100e-6, sampleRateHz: 2.5e6 });
-    const q = quantize(s, { wordLength: 14, fractionLength: 13, signed: true, scaling: "full-scale", rounding: "nearest-even", overflow: "saturate" });
+    const q = quantize(s, {
+      wordLength: 14,
+      fractionLength: 13,
+      signed: true,
+      scaling: "full-scale",
+      rounding: "nearest-even",
+      overflow: "saturate",
+    });
     const t = report.coefficientErrorLsb!.tx!;
     // N = 250 < PLOT_POINTS: every coefficient is kept.
     expect(t.x).toEqual(Array.from({ length: 250 }, (_, i) => i));
@@ -125,7 +139,9 @@ describe("renderReportHtml", () => {
       expect(html).toContain(escapeHtml(formatMetric(k, v)));
       expect(html).toContain(escapeHtml(formatMetric(k, report.float[k])));
     }
-    expect((html.match(/class="verdict pass"/g) ?? []).length).toBeGreaterThanOrEqual(report.limits.filter((c) => c.pass).length);
+    expect((html.match(/class="verdict pass"/g) ?? []).length).toBeGreaterThanOrEqual(
+      report.limits.filter((c) => c.pass).length,
+    );
     expect(html).toContain(`${report.limits.length} acceptance limits pass`);
   });
 
@@ -145,6 +161,8 @@ describe("renderReportHtml", () => {
 
   it("names failing limits in the banner", () => {
     const failing = analyze({ ...lfmSpec, limits: { pslDbMax: -40 } });
-    expect(renderReportHtml(header, failing)).toContain("1 of 1 acceptance limits fail: Peak sidelobe level (PSL).");
+    expect(renderReportHtml(header, failing)).toContain(
+      "1 of 1 acceptance limits fail: Peak sidelobe level (PSL).",
+    );
   });
 });
