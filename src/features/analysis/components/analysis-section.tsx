@@ -20,7 +20,7 @@ export function AnalysisSection({ revisionId }: { revisionId: number }) {
   const revision = useRevision(revisionId);
   const me = useMe();
   const run = useRunAnalysis(revisionId);
-  useFinishToast(status.data);
+  useFinishToast(revisionId, status.data);
 
   const canRun = hasAnyRole(me.data?.roles ?? [], MAY_RUN);
   const analysis = status.data ?? null;
