@@ -304,3 +304,16 @@ export async function withdrawRelease(db: Db, viewer: Viewer, releaseId: number,
   });
   return getRelease(db, viewer, releaseId);
 }
+
+/** The newest releases in the viewer's projects, for the home page. */
+export async function newestReleases(db: Db, viewer: Viewer, limit: number, activeOnly: boolean) {
+  const rows = await releaseRows(db, and(myProjects(db, viewer), activeOnly ? isNull(releases.withdrawnAt) : undefined));
+  return rows.slice(0, limit).map((r) => ({
+    id: r.id,
+    designName: r.designName,
+    projectSlug: r.projectSlug,
+    version: r.version,
+    releasedAt: r.releasedAt,
+    withdrawn: r.withdrawn !== null,
+  }));
+}

@@ -372,3 +372,21 @@ export async function reviewQueue(db: Db, viewer: Viewer): Promise<QueueItem[]> 
 
 /** Input type re-exported for the routes. */
 export type { DecisionInput };
+
+/** Revisions for the author's home page: mine in a given state, newest first. */
+export async function myRevisionsIn(db: Db, viewer: Viewer, state: RevisionState, limit = 10) {
+  const rows = await db
+    .select({ revisionId: revisions.id, revisionNumber: revisions.number, designId: designs.id, designName: designs.name, state: revisions.state })
+    .from(revisions)
+    .innerJoin(designs, eq(designs.id, revisions.designId))
+    .where(
+      and(
+        eq(revisions.state, state),
+        state === "draft" ? eq(revisions.createdById, viewer.id) : eq(revisions.submittedById, viewer.id),
+        inArray(designs.projectId, db.select({ id: projectMembers.projectId }).from(projectMembers).where(eq(projectMembers.userId, viewer.id))),
+      ),
+    )
+    .orderBy(desc(revisions.createdAt))
+    .limit(limit);
+  return rows;
+}

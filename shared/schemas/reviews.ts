@@ -125,3 +125,35 @@ export const TransitionResponseSchema = z.object({
   revision: z.object({ id: z.number().int(), number: z.number().int(), state: RevisionStateSchema }),
   review: ReviewSchema.optional(),
 });
+
+/** A revision named on the home page. */
+export const HomeRevisionSchema = z.object({
+  revisionId: z.number().int(),
+  revisionNumber: z.number().int(),
+  designId: z.number().int(),
+  designName: z.string(),
+  state: RevisionStateSchema,
+});
+
+/** A release named on the home page. */
+export const HomeReleaseSchema = z.object({
+  id: z.number().int(),
+  designName: z.string(),
+  projectSlug: z.string(),
+  version: z.string(),
+  releasedAt: z.string(),
+  withdrawn: z.boolean(),
+});
+
+/** The review/release part of GET /api/home (`work`), per role; absent parts are for roles the user lacks. */
+export const HomeWorkSchema = z.object({
+  /** Author: my drafts, my revisions with changes requested, the last releases in my projects. */
+  myDrafts: z.array(HomeRevisionSchema).optional(),
+  changesRequested: z.array(HomeRevisionSchema).optional(),
+  lastReleases: z.array(HomeReleaseSchema).optional(),
+  /** Reviewer: how many revisions wait in my queue. */
+  queueCount: z.number().int().optional(),
+  /** Firmware: the newest releases (not withdrawn) in my projects. */
+  newestReleases: z.array(HomeReleaseSchema).optional(),
+});
+export type HomeWork = z.infer<typeof HomeWorkSchema>;

@@ -129,6 +129,15 @@ describe("versions, withdrawal and reading", () => {
     expect(page.previousRelease.report).not.toBeNull();
   });
 
+  it("home: firmware sees the newest releases that are not withdrawn; the author sees the withdrawn one too", async () => {
+    const fw = (await firmware.get("/api/home")).body as { work: { newestReleases: { version: string; withdrawn: boolean }[] } };
+    expect(fw.work.newestReleases.some((r) => r.withdrawn)).toBe(false);
+    expect(fw.work.newestReleases.map((r) => r.version)).toContain("1.0.1");
+    const au = (await author.get("/api/home")).body as { work: { lastReleases: { withdrawn: boolean }[]; myDrafts: unknown[] } };
+    expect(au.work.lastReleases.length).toBeGreaterThan(0);
+    expect(au.work.myDrafts.length).toBeGreaterThan(0);
+  });
+
   it("the database refuses to change or delete a release", async () => {
     await expect(q("update releases set notes = 'edited' where id = $1", [first])).rejects.toThrow(/withdrawn and cannot change/);
     await expect(q("delete from releases where id = $1", [first])).rejects.toThrow(/cannot be deleted/);
