@@ -77,7 +77,12 @@ describe("design and revision pages", () => {
     await w.fill("40");
     await page.getByText(/less than or equal to 32|at most 32|<=32/).waitFor();
     await w.fill("12");
+    // Wait for the PATCH itself: the button is disabled while the request is in flight, so its state alone races.
+    const patched = page.waitForResponse(
+      (r) => r.url().endsWith(`/api/revisions/${revisionId}`) && r.request().method() === "PATCH",
+    );
     await page.getByRole("button", { name: "Save fixed-point spec" }).click();
+    expect((await patched).status()).toBe(200);
     await expect.poll(async () => page.getByRole("button", { name: "Save fixed-point spec" }).isDisabled()).toBe(true);
     const saved = (await (await page.request.get(`/api/revisions/${revisionId}`)).json()) as {
       content: { fixedPoint: { rx: { wordLength: number; fractionLength: number } } };
