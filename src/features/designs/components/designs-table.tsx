@@ -169,7 +169,9 @@ export function DesignsTable({ projectId, canCreate }: { projectId: number; canC
     setQ(v.q);
     setParams(writeListState(params, v), { replace: true });
   };
-  const sorting: SortingState = [view.sort];
+  // State handed to TanStack must keep its identity between renders: a fresh array re-sorts every render, and
+  // each re-sort queues a page-index reset that renders again — a loop that starves route transitions.
+  const sorting: SortingState = useMemo(() => [{ id: urlView.sort.id, desc: urlView.sort.desc }], [urlView.sort.id, urlView.sort.desc]);
   const columnFilters = useMemo(
     () => [
       ...(view.kind ? [{ id: "kind", value: view.kind }] : []),
@@ -188,6 +190,7 @@ export function DesignsTable({ projectId, canCreate }: { projectId: number; canC
       setView({ ...view, sort: first ? { id: first.id as SortColumn, desc: first.desc } : { id: view.sort.id, desc: !view.sort.desc } });
     },
     enableSortingRemoval: false,
+    autoResetPageIndex: false,
     globalFilterFn: (row, _id, needle: string) => {
       const n = needle.trim().toLowerCase();
       const d = row.original;
