@@ -2,12 +2,13 @@
 // STACK.md) of report.html, on A4 and on Letter, read back with poppler's pdftotext, holds the header and every
 // figure and limit name. Also covers a FIR design (response with masks) next to a waveform.
 import { spawnSync } from "node:child_process";
-import { chromium, type Browser } from "playwright-core";
+import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { AnalysisWorker } from "../../server/jobs/worker";
 import { METRIC_LABELS } from "../../server/reports/metrics";
 import { ReportDocumentSchema } from "../../shared/schemas/analyses";
 import { newDesign, pollAnalysis, taylorLfm, testWorker } from "./analysis-helpers";
+import { launch } from "../e2e/browser";
 import { failOnConsoleError, signedIn, useApiTestDatabase, type Agent } from "./helpers";
 
 const t = useApiTestDatabase();
@@ -34,19 +35,7 @@ let browser: Browser;
 let author: Agent;
 beforeAll(async () => {
   worker = await testWorker(t.database);
-  browser = await chromium.launch({
-    executablePath: "/usr/bin/chromium",
-    headless: true,
-    args: [
-      "--no-sandbox",
-      "--disable-gpu",
-      "--disable-quic",
-      "--no-first-run",
-      "--disable-background-networking",
-      "--disable-component-update",
-      "--disable-sync",
-    ],
-  });
+  browser = await launch();
   author = await signedIn(t.app, "author");
 });
 afterAll(async () => {
