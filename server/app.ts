@@ -26,6 +26,7 @@ import { projectRoutes } from "./routes/projects";
 import { designRoutes, projectDesignRoutes } from "./routes/designs";
 import { projectReleaseDownloadRoutes, releaseDownloadRoutes } from "./routes/downloads";
 import { designReleaseRoutes, releaseRoutes } from "./routes/releases";
+import { releaseDiffRoutes } from "./routes/releases-diff";
 import { reviewQueueRoutes, revisionReviewRoutes } from "./routes/reviews";
 import { revisionRoutes } from "./routes/revisions";
 import { templateRoutes } from "./routes/templates";
@@ -163,6 +164,7 @@ export function createApp(deps: AppDeps): CreatedApp {
   api.use("/reviews", reviewQueueRoutes(ctx));
   api.use("/releases", releaseRoutes(ctx));
   api.use("/releases", releaseDownloadRoutes(ctx));
+  api.use("/releases", releaseDiffRoutes(ctx));
   api.use("/revisions", analysisRoutes(ctx));
   api.use("/uploads", uploadRoutes(ctx));
   api.use("/templates", templateRoutes(ctx));
