@@ -106,14 +106,16 @@ async function verifyBundle(zipBytes: Uint8Array, expectedSha256: string): Promi
     listed.add(p);
   }
   for (const p of files.keys())
-    if (p !== "SHA256SUMS" && !listed.has(p)) throw new Failure(`${p} is in the bundle but not in SHA256SUMS`, 1);
+    if (p !== "SHA256SUMS" && !listed.has(p))
+      throw new Failure(`${p} is in the bundle but not in SHA256SUMS`, 1);
   const manifestBytes = files.get("manifest.json");
   if (!manifestBytes) throw new Failure("the bundle has no manifest.json", 1);
   const manifest = JSON.parse(new TextDecoder().decode(manifestBytes)) as {
     schema?: string;
     files?: { path: string; size: number; sha256: string }[];
   };
-  if (manifest.schema !== "tapwright-bundle") throw new Failure("manifest.json is not a tapwright-bundle manifest", 1);
+  if (manifest.schema !== "tapwright-bundle")
+    throw new Failure("manifest.json is not a tapwright-bundle manifest", 1);
   for (const f of manifest.files ?? []) {
     const bytes = files.get(f.path);
     if (!bytes || bytes.byteLength !== f.size || sha256(bytes) !== f.sha256)
@@ -127,20 +129,29 @@ async function main(): Promise<void> {
   const token = process.env.TAPWRIGHT_TOKEN || undefined;
   const base = `${args.server}/api/projects/${encodeURIComponent(args.project)}/designs/${encodeURIComponent(args.design)}/releases/${encodeURIComponent(args.version)}`;
   const { release } = (await (await get(base, token)).json()) as {
-    release: { id: number; version: string; bundleSha256: string | null; withdrawn: { reason: string } | null };
+    release: {
+      id: number;
+      version: string;
+      bundleSha256: string | null;
+      withdrawn: { reason: string } | null;
+    };
   };
   if (!release.bundleSha256) throw new Failure(`release ${release.version} has no bundle`, 1);
   // By id, not by "latest" again: a release made in between must not change what we verify against.
-  const zipBytes = new Uint8Array(await (await get(`${args.server}/api/releases/${release.id}/bundle`, token)).arrayBuffer());
+  const zipBytes = new Uint8Array(
+    await (await get(`${args.server}/api/releases/${release.id}/bundle`, token)).arrayBuffer(),
+  );
   const files = await verifyBundle(zipBytes, release.bundleSha256);
   const out = path.resolve(args.out);
-  if (existsSync(out) && readdirSync(out).length > 0) throw new Failure(`${args.out} is not empty; choose an empty or new folder`, 2);
+  if (existsSync(out) && readdirSync(out).length > 0)
+    throw new Failure(`${args.out} is not empty; choose an empty or new folder`, 2);
   for (const [p, bytes] of [...files].sort(([a], [b]) => (a < b ? -1 : 1))) {
     const target = path.join(out, ...p.split("/"));
     mkdirSync(path.dirname(target), { recursive: true });
     writeFileSync(target, bytes);
   }
-  if (release.withdrawn) process.stderr.write(`WARNING: ${release.version} is WITHDRAWN: ${release.withdrawn.reason}\n`);
+  if (release.withdrawn)
+    process.stderr.write(`WARNING: ${release.version} is WITHDRAWN: ${release.withdrawn.reason}\n`);
   process.stdout.write(
     `${args.project}/${args.design} ${release.version}: ${files.size} files verified (bundle sha256 ${release.bundleSha256}) into ${args.out}\n`,
   );

@@ -43,7 +43,10 @@ export function bearerAuth(db: Db): RequestHandler {
     });
     if (!identity) throw new HttpError("unauthenticated", "This API token is unknown or has been revoked");
     if (identity.scope === "read" && !READ_METHODS.has(req.method))
-      throw new HttpError("forbidden", "This API token is read-only: it can download but not change anything");
+      throw new HttpError(
+        "forbidden",
+        "This API token is read-only: it can download but not change anything",
+      );
     // The token speaks for its owner on this request only; nothing is written into the session.
     req.user = tokenSessionUser(identity);
     req.apiToken = { id: identity.tokenId, scope: identity.scope, prefix: identity.prefix };

@@ -42,7 +42,9 @@ import { renderReadme } from "./readme";
 import { comparePaths, sha256Hex, sha256sums, zipFiles, type BundleFile } from "./zip";
 
 /** The JSON Schema of manifest.json, as committed in docs/ and copied byte for byte into each bundle. */
-export const MANIFEST_SCHEMA_PATH = fileURLToPath(new URL("../../docs/schemas/manifest.schema.json", import.meta.url));
+export const MANIFEST_SCHEMA_PATH = fileURLToPath(
+  new URL("../../docs/schemas/manifest.schema.json", import.meta.url),
+);
 
 /** What a release passes to the builder. */
 export interface BuildReleaseInput {
@@ -92,10 +94,20 @@ async function templatesFor(tx: Executor, ids: readonly string[]): Promise<Rende
       continue;
     }
     const [row] = /^\d+$/.test(id)
-      ? await tx.select().from(exportTemplates).where(eq(exportTemplates.id, Number(id)))
+      ? await tx
+          .select()
+          .from(exportTemplates)
+          .where(eq(exportTemplates.id, Number(id)))
       : [];
     if (!row) throw new BundleBuildError(`no export template "${id}"`);
-    out.push({ id: String(row.id), name: row.name, version: row.version, extension: row.extension, kind: "text", body: row.body });
+    out.push({
+      id: String(row.id),
+      name: row.name,
+      version: row.version,
+      extension: row.extension,
+      kind: "text",
+      body: row.body,
+    });
   }
   return out;
 }
@@ -122,7 +134,8 @@ export async function buildReleaseBundle(tx: Executor, input: BuildReleaseInput)
     .innerJoin(projects, eq(projects.id, designs.projectId))
     .where(eq(revisions.id, input.revisionId));
   if (!rev) throw new BundleBuildError(`no revision ${input.revisionId}`);
-  if (!rev.contentHash) throw new BundleBuildError(`revision ${rev.id} is a draft: it has no content hash yet`);
+  if (!rev.contentHash)
+    throw new BundleBuildError(`revision ${rev.id} is a draft: it has no content hash yet`);
   const contentHash = rev.contentHash;
   const content = RevisionContentSchema.parse(rev.content);
 
@@ -146,7 +159,11 @@ export async function buildReleaseBundle(tx: Executor, input: BuildReleaseInput)
     .from(reviews)
     .innerJoin(users, eq(users.id, reviews.reviewerId))
     .where(
-      and(eq(reviews.revisionId, rev.id), eq(reviews.decision, "approved"), eq(reviews.contentHash, contentHash)),
+      and(
+        eq(reviews.revisionId, rev.id),
+        eq(reviews.decision, "approved"),
+        eq(reviews.contentHash, contentHash),
+      ),
     )
     .orderBy(asc(reviews.at), asc(reviews.id));
 
@@ -161,7 +178,10 @@ export async function buildReleaseBundle(tx: Executor, input: BuildReleaseInput)
   const fixedPoint = content.fixedPoint as Record<string, FixedPointSpec | undefined>;
   const files: BundleFile[] = [];
   const tables: ManifestTable[] = [];
-  const quantized = new Map<string, { signal: ReturnType<typeof decodeValues>; q: ReturnType<typeof quantize> }>();
+  const quantized = new Map<
+    string,
+    { signal: ReturnType<typeof decodeValues>; q: ReturnType<typeof quantize> }
+  >();
 
   for (const t of tableRows) {
     const spec = fixedPoint[t.role];
@@ -186,7 +206,9 @@ export async function buildReleaseBundle(tx: Executor, input: BuildReleaseInput)
       try {
         rendered = await renderExport(template, ctx);
       } catch (err) {
-        throw new BundleBuildError(`template ${template.name} failed on table ${t.role}: ${(err as Error).message}`);
+        throw new BundleBuildError(
+          `template ${template.name} failed on table ${t.role}: ${(err as Error).message}`,
+        );
       }
       const path = `tables/${t.role}/${rendered.fileName}`;
       files.push({ path, bytes: rendered.bytes });

@@ -27,7 +27,10 @@ export function bundleFileName(r: Pick<Release, "projectSlug" | "designName" | "
 }
 
 /** The stored bundle of a release, verified; throws HttpError 404 when none was stored. */
-async function storedBundle(db: Db, releaseId: number): Promise<{ bytes: Buffer; stored: string; actual: string }> {
+async function storedBundle(
+  db: Db,
+  releaseId: number,
+): Promise<{ bytes: Buffer; stored: string; actual: string }> {
   const [row] = await db
     .select({ bundle: releases.bundle, sha256: releases.bundleSha256 })
     .from(releases)
@@ -47,7 +50,12 @@ export async function sendBundle(db: Db, req: Request, res: Response, release: R
       action: "release.bundle-corrupt",
       ...subject,
       summary: `Refused to serve ${release.designName} ${release.version}: its bundle no longer matches its SHA-256`,
-      details: { version: release.version, storedSha256: stored, actualSha256: actual, size: bytes.byteLength },
+      details: {
+        version: release.version,
+        storedSha256: stored,
+        actualSha256: actual,
+        size: bytes.byteLength,
+      },
     });
     req.log?.error({ releaseId: release.id, stored, actual }, "stored bundle does not match its SHA-256");
     res.status(500).json({
@@ -64,7 +72,12 @@ export async function sendBundle(db: Db, req: Request, res: Response, release: R
     action: "release.download",
     ...subject,
     summary: `Downloaded ${release.projectSlug}/${release.designName} ${release.version}${req.apiToken ? ` with token ${req.apiToken.prefix}…` : ""}`,
-    details: { version: release.version, sha256: stored, size: bytes.byteLength, tokenId: req.apiToken?.id ?? null },
+    details: {
+      version: release.version,
+      sha256: stored,
+      size: bytes.byteLength,
+      tokenId: req.apiToken?.id ?? null,
+    },
   });
   res.setHeader("Content-Type", "application/zip");
   res.setHeader("Content-Disposition", `attachment; filename="${bundleFileName(release)}"`);

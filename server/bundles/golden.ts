@@ -90,7 +90,10 @@ const IMPULSE: ComplexSignal = { re: Float64Array.of(1), im: Float64Array.of(0) 
 function scenarioShape(kind: GoldenInput["kind"], waveformLength: number, filterLength: number) {
   // Two targets, the second weaker and overlapping the first's tail, plus room for the filter to ring out.
   const length = Math.min(2 * waveformLength + filterLength + 32, 65_536);
-  const second = Math.min(length - 1, 8 + Math.max(1, Math.floor(waveformLength / 2)) + (kind === "filter" ? 24 : 0));
+  const second = Math.min(
+    length - 1,
+    8 + Math.max(1, Math.floor(waveformLength / 2)) + (kind === "filter" ? 24 : 0),
+  );
   const targets: StimulusTarget[] = [
     { delay: 8, amplitude: 0.5, phaseRad: 0 },
     { delay: second, amplitude: 0.25, phaseRad: Math.PI / 3 },
@@ -101,7 +104,8 @@ function scenarioShape(kind: GoldenInput["kind"], waveformLength: number, filter
 /** Builds the golden files and their scenario. */
 export function buildGolden(input: GoldenInput): { files: GoldenFile[]; scenario: GoldenScenario } {
   const waveform = input.kind === "waveform" ? input.waveform : IMPULSE;
-  if (!waveform) throw new RangeError("a waveform design needs its transmit waveform for the golden stimulus");
+  if (!waveform)
+    throw new RangeError("a waveform design needs its transmit waveform for the golden stimulus");
   const { length, targets } = scenarioShape(input.kind, waveform.re.length, input.codes.re.length);
   const stimulus = makeStimulus({
     waveform,

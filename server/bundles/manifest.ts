@@ -65,7 +65,13 @@ export interface BundleManifest {
   revision: { id: number; number: number };
   contentHash: string;
   released: { at: string; by: ManifestPerson };
-  approvals: { reviewer: ManifestPerson; at: string; contentHash: string; reportHash: string; comment: string }[];
+  approvals: {
+    reviewer: ManifestPerson;
+    at: string;
+    contentHash: string;
+    reportHash: string;
+    comment: string;
+  }[];
   conventions: {
     tapOrder: string;
     codes: string;

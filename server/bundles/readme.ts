@@ -63,7 +63,9 @@ export function renderReadme(m: BundleManifest): string {
   );
   out.push("");
   out.push("Other files", "-----------");
-  out.push(`  manifest.json         everything above, machine-readable (schema ${m.schema} ${m.schemaVersion})`);
+  out.push(
+    `  manifest.json         everything above, machine-readable (schema ${m.schema} ${m.schemaVersion})`,
+  );
   out.push("  manifest.schema.json  JSON Schema (draft 2020-12) of manifest.json");
   out.push(`  ${m.report.html.padEnd(20)}  the fixed-point analysis report (prints well)`);
   out.push(`  ${m.report.json.padEnd(20)}  the same report as JSON`);

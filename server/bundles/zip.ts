@@ -34,7 +34,10 @@ export function zipDate(at: Date): Date {
 
 /** Checks a bundle path: relative, "/"-separated, printable ASCII, no "." or ".." segments. */
 export function checkBundlePath(path: string): void {
-  if (!/^[A-Za-z0-9._-]+(\/[A-Za-z0-9._-]+)*$/.test(path) || path.split("/").some((s) => s === "." || s === ".."))
+  if (
+    !/^[A-Za-z0-9._-]+(\/[A-Za-z0-9._-]+)*$/.test(path) ||
+    path.split("/").some((s) => s === "." || s === "..")
+  )
     throw new RangeError(`bad bundle path: ${JSON.stringify(path)}`);
 }
 

@@ -129,7 +129,8 @@ export async function createToken(
 /** Revoke a token: its owner or an admin; others get 404 (they cannot learn it exists); twice is 409. */
 export async function revokeToken(db: Db, viewer: Viewer, id: number): Promise<ApiToken> {
   const row = await tokenById(db, id);
-  if (!row || (row.ownerId !== viewer.id && !isAdmin(viewer))) throw new HttpError("not_found", "No such token");
+  if (!row || (row.ownerId !== viewer.id && !isAdmin(viewer)))
+    throw new HttpError("not_found", "No such token");
   if (row.revokedAt) throw new HttpError("conflict", "This token is already revoked");
   await db.transaction(async (tx) => {
     const done = await tx

@@ -11,7 +11,11 @@ export const TOKEN_PREFIX = "tw_";
 
 /** POST /api/tokens */
 export const CreateTokenSchema = z.object({
-  name: z.string().trim().min(1, "name the token (e.g. the build job using it)").max(80, "at most 80 characters"),
+  name: z
+    .string()
+    .trim()
+    .min(1, "name the token (e.g. the build job using it)")
+    .max(80, "at most 80 characters"),
   scope: TokenScopeSchema.default("read"),
 });
 export type CreateTokenInput = z.input<typeof CreateTokenSchema>;

@@ -5,7 +5,6 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import type request from "supertest";
-import { expect } from "vitest";
 import { ReleaseResponseSchema, type Release } from "../../shared/schemas/releases";
 import { binary } from "./designs-helpers";
 import { analysedDraft, barker13, expectStatus, signedIn } from "./lifecycle-helpers";
@@ -32,8 +31,16 @@ export async function releasedDesign(t: ApiTestContext, content: object = barker
   const reviewer = await signedIn(t.app, "reviewer");
   const ids = await analysedDraft(t, author, content);
   expectStatus(await author.post(`/api/revisions/${ids.revisionId}/submit`), 200, "submit");
-  expectStatus(await reviewer.post(`/api/revisions/${ids.revisionId}/decision`).send({ decision: "approved", comment: "Meets the limits." }), 201, "approve");
-  const rel = await author.post(`/api/revisions/${ids.revisionId}/release`).send({ version, notes: "First issue for the bench." });
+  expectStatus(
+    await reviewer
+      .post(`/api/revisions/${ids.revisionId}/decision`)
+      .send({ decision: "approved", comment: "Meets the limits." }),
+    201,
+    "approve",
+  );
+  const rel = await author
+    .post(`/api/revisions/${ids.revisionId}/release`)
+    .send({ version, notes: "First issue for the bench." });
   expectStatus(rel, 201, "release");
   const release: Release = ReleaseResponseSchema.parse(rel.body).release;
   return { ...ids, author, reviewer, release };
@@ -60,5 +67,9 @@ export function unzipToTemp(zip: Buffer): { dir: string; read(p: string): Buffer
   } finally {
     rmSync(zipPath, { force: true });
   }
-  return { dir, read: (p) => readFileSync(path.join(dir, p)), cleanup: () => rmSync(dir, { recursive: true, force: true }) };
+  return {
+    dir,
+    read: (p) => readFileSync(path.join(dir, p)),
+    cleanup: () => rmSync(dir, { recursive: true, force: true }),
+  };
 }

@@ -11,6 +11,7 @@ import path from "node:path";
 import request from "supertest";
 import { beforeAll, describe, expect, it } from "vitest";
 import type { Release } from "../../shared/schemas/releases";
+import { buildReleaseBundle } from "../../server/bundles/build";
 import { expectError, useApiTestDatabase, type Agent } from "./helpers";
 import { addUser, barker13, signedIn } from "./lifecycle-helpers";
 import { bundleOf, decimationFir, releasedDesign, unzipToTemp } from "./bundles-helpers";
@@ -21,7 +22,11 @@ const sha256 = (b: Uint8Array) => createHash("sha256").update(b).digest("hex");
 type Manifest = {
   schemaVersion: string;
   files: { path: string; size: number; sha256: string }[];
-  tables: { role: string; fixedPoint: { wordLength: number }; exports: { template: string; path: string }[] }[];
+  tables: {
+    role: string;
+    fixedPoint: { wordLength: number };
+    exports: { template: string; path: string }[];
+  }[];
   golden: { filterTable: string };
   approvals: { reviewer: { username: string } }[];
   transmitCaution: string | null;
@@ -29,7 +34,13 @@ type Manifest = {
 };
 
 type Scenario = {
-  filter: { outputShift: number; outputBits: number; rounding: string; overflow: string; overflowCount: number };
+  filter: {
+    outputShift: number;
+    outputBits: number;
+    rounding: string;
+    overflow: string;
+    overflowCount: number;
+  };
   stimulus: { inputBits: number; length: number };
 };
 
@@ -74,7 +85,8 @@ function expectedOutput(x: { re: bigint[]; im: bigint[] }, h: { re: bigint[]; im
   const { outputShift, outputBits, rounding, overflow } = sc.filter;
   const max = (1n << BigInt(outputBits - 1)) - 1n;
   const min = -max - 1n;
-  const fit = (v: bigint) => (v > max || v < min ? (overflow === "saturate" ? (v > max ? max : min) : BigInt.asIntN(outputBits, v)) : v);
+  const fit = (v: bigint) =>
+    v > max || v < min ? (overflow === "saturate" ? (v > max ? max : min) : BigInt.asIntN(outputBits, v)) : v;
   const ny = x.re.length + h.re.length - 1;
   const re: bigint[] = [];
   const im: bigint[] = [];
@@ -116,8 +128,12 @@ describe("release bundles", () => {
     expect(zip.byteLength).toBe(waveform.release.bundleSize);
     expect(again.headers["content-type"]).toBe("application/zip");
     expect(again.headers["x-bundle-sha256"]).toBe(sha256(zip));
-    expect(again.headers["repr-digest"]).toBe(`sha-256=:${createHash("sha256").update(zip).digest("base64")}:`);
-    expect(again.headers["content-disposition"]).toMatch(/^attachment; filename="coastwatch-s-.+-1\.0\.0\.zip"$/);
+    expect(again.headers["repr-digest"]).toBe(
+      `sha-256=:${createHash("sha256").update(zip).digest("base64")}:`,
+    );
+    expect(again.headers["content-disposition"]).toMatch(
+      /^attachment; filename="coastwatch-s-.+-1\.0\.0\.zip"$/,
+    );
     // Audited: two downloads, by two people.
     const audit = await t.database.pool.query(
       "select actor_kind, details->>'sha256' as sha from audit_events where action = 'release.download' and subject_id = $1",
@@ -129,10 +145,26 @@ describe("release bundles", () => {
     ]);
   });
 
+  it("is deterministic: rebuilding from the same release input gives the stored bytes exactly", async () => {
+    const r = waveform.release;
+    const rebuilt = await buildReleaseBundle(t.database.db, {
+      revisionId: r.revisionId,
+      version: r.version,
+      notes: r.notes,
+      releasedBy: r.releasedBy.id,
+      releasedAt: new Date(r.releasedAt),
+    });
+    expect(rebuilt.sha256).toBe(r.bundleSha256);
+    expect(Buffer.compare(rebuilt.zip, zip)).toBe(0);
+  });
+
   it("unzips with Debian's unzip and every checksum passes coreutils' sha256sum -c; SHA256SUMS lists every other file, sorted", () => {
     const u = unzipToTemp(zip);
     try {
-      const out = execFileSync("sha256sum", ["-c", "--strict", "SHA256SUMS"], { cwd: u.dir, encoding: "utf8" });
+      const out = execFileSync("sha256sum", ["-c", "--strict", "SHA256SUMS"], {
+        cwd: u.dir,
+        encoding: "utf8",
+      });
       const files = walk(u.dir).sort();
       const listed = u
         .read("SHA256SUMS")
@@ -142,7 +174,16 @@ describe("release bundles", () => {
         .map((l) => l.slice(66));
       expect(listed).toEqual(files.filter((f) => f !== "SHA256SUMS"));
       expect(out.trimEnd().split("\n")).toEqual(listed.map((f) => `${f}: OK`));
-      for (const need of ["README.txt", "manifest.json", "manifest.schema.json", "golden/scenario.json", "golden/stimulus.txt", "golden/expected.txt", "report/report.html", "report/report.json"])
+      for (const need of [
+        "README.txt",
+        "manifest.json",
+        "manifest.schema.json",
+        "golden/scenario.json",
+        "golden/stimulus.txt",
+        "golden/expected.txt",
+        "report/report.html",
+        "report/report.json",
+      ])
         expect(files).toContain(need);
       // Every built-in template once per table: 5 Liquid templates + binary, tables tx and rx.
       expect(files.filter((f) => f.startsWith("tables/rx/"))).toHaveLength(6);
@@ -177,7 +218,12 @@ describe("release bundles", () => {
     const u = unzipToTemp(zip);
     try {
       const schemaBytes = u.read("manifest.schema.json");
-      expect(Buffer.compare(schemaBytes, readFileSync(path.join(process.cwd(), "docs/schemas/manifest.schema.json")))).toBe(0);
+      expect(
+        Buffer.compare(
+          schemaBytes,
+          readFileSync(path.join(process.cwd(), "docs/schemas/manifest.schema.json")),
+        ),
+      ).toBe(0);
       const ajv = new Ajv2020({ allErrors: true, strict: true });
       addFormats(ajv);
       const validate = ajv.compile(JSON.parse(schemaBytes.toString("utf8")));
@@ -188,9 +234,15 @@ describe("release bundles", () => {
         const bytes = u.read(f.path);
         expect({ path: f.path, size: bytes.byteLength, sha256: sha256(bytes) }).toEqual(f);
       }
-      expect(manifest.files.map((f) => f.path)).toEqual(walk(u.dir).filter((f) => f !== "manifest.json" && f !== "SHA256SUMS").sort());
+      expect(manifest.files.map((f) => f.path)).toEqual(
+        walk(u.dir)
+          .filter((f) => f !== "manifest.json" && f !== "SHA256SUMS")
+          .sort(),
+      );
       expect(manifest.approvals.map((a) => a.reviewer.username)).toEqual(["reviewer"]);
-      expect(manifest.templates.map((x) => x.id).sort()).toEqual(["binary", "c-header", "csv", "json", "readmemh", "vhdl-package"].sort());
+      expect(manifest.templates.map((x) => x.id).sort()).toEqual(
+        ["binary", "c-header", "csv", "json", "readmemh", "vhdl-package"].sort(),
+      );
       // A waveform carries the transmit caution (DESIGN.md "Cautions"), in the manifest and the readme.
       expect(manifest.transmitCaution).toMatch(/dummy load/);
       expect(u.read("README.txt").toString("utf8")).toMatch(/CAUTION[\s\S]*dummy load/);
@@ -215,7 +267,9 @@ describe("release bundles", () => {
         const table = manifest.tables.find((x) => x.role === manifest.golden.filterTable)!;
         expect(table.role).toBe(which === "waveform" ? "rx" : "fir");
         const jsonExport = table.exports.find((e) => e.template === "json")!;
-        const taps = (JSON.parse(u.read(jsonExport.path).toString("utf8")) as { taps: { i: number; q: number }[] }).taps;
+        const taps = (
+          JSON.parse(u.read(jsonExport.path).toString("utf8")) as { taps: { i: number; q: number }[] }
+        ).taps;
         const h = { re: taps.map((x) => BigInt(x.i)), im: taps.map((x) => BigInt(x.q)) };
         const x = pairs(u.read("golden/stimulus.txt").toString("utf8"));
         const y = pairs(u.read("golden/expected.txt").toString("utf8"));
@@ -249,7 +303,10 @@ describe("release bundles", () => {
     const client = await t.database.pool.connect();
     try {
       await client.query("alter table releases disable trigger user");
-      await client.query("update releases set bundle = overlay(bundle placing '\\x00'::bytea from 200 for 1) where id = $1", [victim.release.id]);
+      await client.query(
+        "update releases set bundle = overlay(bundle placing '\\x00'::bytea from 200 for 1) where id = $1",
+        [victim.release.id],
+      );
       await client.query("alter table releases enable trigger user");
     } finally {
       client.release();
@@ -262,13 +319,23 @@ describe("release bundles", () => {
       [String(victim.release.id)],
     );
     expect(audit.rows).toEqual([{ actor_kind: "user", stored: victim.release.bundleSha256 }]);
-    const served = await t.database.pool.query("select count(*)::int as n from audit_events where action = 'release.download' and subject_id = $1", [String(victim.release.id)]);
+    const served = await t.database.pool.query(
+      "select count(*)::int as n from audit_events where action = 'release.download' and subject_id = $1",
+      [String(victim.release.id)],
+    );
     expect(served.rows[0].n).toBe(0);
   });
 
   it("answers 401 without a session or token, 404 to non-members and for unknown releases", async () => {
-    expectError(await request(t.app).get(`/api/releases/${waveform.release.id}/bundle`), 401, "unauthenticated");
-    const outsider = await signedIn(t.app, (await addUser(t.database, "outsider-bs", ["firmware"], [])) && "outsider-bs");
+    expectError(
+      await request(t.app).get(`/api/releases/${waveform.release.id}/bundle`),
+      401,
+      "unauthenticated",
+    );
+    const outsider = await signedIn(
+      t.app,
+      (await addUser(t.database, "outsider-bs", ["firmware"], [])) && "outsider-bs",
+    );
     expectError(await outsider.get(`/api/releases/${waveform.release.id}/bundle`), 404, "not_found");
     expectError(await firmware.get("/api/releases/999999/bundle"), 404, "not_found");
   });

@@ -14,10 +14,17 @@ import { signedIn } from "./lifecycle-helpers";
 
 const t = useApiTestDatabase();
 
-function pull(args: string[], env: Record<string, string>): Promise<{ code: number; stdout: string; stderr: string }> {
+function pull(
+  args: string[],
+  env: Record<string, string>,
+): Promise<{ code: number; stdout: string; stderr: string }> {
   return new Promise((resolve) => {
-    execFile("npm", ["run", "--silent", "pull", "--", ...args], { cwd: process.cwd(), env: { ...process.env, ...env }, timeout: 60_000 }, (err, stdout, stderr) =>
-      resolve({ code: err ? ((err as { code?: number }).code ?? 1) : 0, stdout, stderr }),
+    execFile(
+      "npm",
+      ["run", "--silent", "pull", "--", ...args],
+      { cwd: process.cwd(), env: { ...process.env, ...env }, timeout: 60_000 },
+      (err, stdout, stderr) =>
+        resolve({ code: err ? ((err as { code?: number }).code ?? 1) : 0, stdout, stderr }),
     );
   });
 }
@@ -38,7 +45,9 @@ describe("npm run pull", () => {
     const r = await releasedDesign(t, undefined, "1.0.0");
     design = r.release.designName;
     const firmware = await signedIn(t.app, "firmware");
-    secret = CreatedTokenSchema.parse((await firmware.post("/api/tokens").send({ name: "pull test" })).body).secret;
+    secret = CreatedTokenSchema.parse(
+      (await firmware.post("/api/tokens").send({ name: "pull test" })).body,
+    ).secret;
     server = await new Promise<Server>((resolve) => {
       const s = t.app.listen(0, "127.0.0.1", () => resolve(s));
     });
@@ -52,26 +61,49 @@ describe("npm run pull", () => {
 
   it("downloads coastwatch-s/<design>@latest with a token, verifies every checksum and unpacks; sha256sum -c agrees", async () => {
     const out = path.join(tempDir(), "bundle");
-    const r = await pull([`coastwatch-s/${design}@latest`, "--out", out], { TAPWRIGHT_URL: url, TAPWRIGHT_TOKEN: secret });
+    const r = await pull([`coastwatch-s/${design}@latest`, "--out", out], {
+      TAPWRIGHT_URL: url,
+      TAPWRIGHT_TOKEN: secret,
+    });
     expect(r.code, r.stderr).toBe(0);
     expect(r.stdout).toMatch(/1\.0\.0: \d+ files verified/);
     const check = execFileSync("sha256sum", ["-c", "--strict", "SHA256SUMS"], { cwd: out, encoding: "utf8" });
     expect(check).not.toMatch(/FAILED/);
-    expect(readdirSync(out).sort()).toEqual(["README.txt", "SHA256SUMS", "golden", "manifest.json", "manifest.schema.json", "report", "tables"]);
+    expect(readdirSync(out).sort()).toEqual([
+      "README.txt",
+      "SHA256SUMS",
+      "golden",
+      "manifest.json",
+      "manifest.schema.json",
+      "report",
+      "tables",
+    ]);
   });
 
   it("an explicit version works too; a missing version, a bad token and a non-empty folder fail with a message and a non-zero exit", async () => {
-    const ok = await pull([`coastwatch-s/${design}@1.0.0`, "--out", path.join(tempDir(), "b")], { TAPWRIGHT_URL: url, TAPWRIGHT_TOKEN: secret });
+    const ok = await pull([`coastwatch-s/${design}@1.0.0`, "--out", path.join(tempDir(), "b")], {
+      TAPWRIGHT_URL: url,
+      TAPWRIGHT_TOKEN: secret,
+    });
     expect(ok.code, ok.stderr).toBe(0);
-    const missing = await pull([`coastwatch-s/${design}@9.9.9`, "--out", path.join(tempDir(), "c")], { TAPWRIGHT_URL: url, TAPWRIGHT_TOKEN: secret });
+    const missing = await pull([`coastwatch-s/${design}@9.9.9`, "--out", path.join(tempDir(), "c")], {
+      TAPWRIGHT_URL: url,
+      TAPWRIGHT_TOKEN: secret,
+    });
     expect(missing.code).toBe(3);
     expect(missing.stderr).toMatch(/404/);
-    const bad = await pull([`coastwatch-s/${design}@latest`, "--out", path.join(tempDir(), "d")], { TAPWRIGHT_URL: url, TAPWRIGHT_TOKEN: `tw_${"x".repeat(43)}` });
+    const bad = await pull([`coastwatch-s/${design}@latest`, "--out", path.join(tempDir(), "d")], {
+      TAPWRIGHT_URL: url,
+      TAPWRIGHT_TOKEN: `tw_${"x".repeat(43)}`,
+    });
     expect(bad.code).toBe(3);
     expect(bad.stderr).toMatch(/401/);
     const full = tempDir();
     execFileSync("touch", [path.join(full, "keep")]);
-    const nonEmpty = await pull([`coastwatch-s/${design}@latest`, "--out", full], { TAPWRIGHT_URL: url, TAPWRIGHT_TOKEN: secret });
+    const nonEmpty = await pull([`coastwatch-s/${design}@latest`, "--out", full], {
+      TAPWRIGHT_URL: url,
+      TAPWRIGHT_TOKEN: secret,
+    });
     expect(nonEmpty.code).toBe(2);
     const usage = await pull(["no-at-sign", "--out", full], { TAPWRIGHT_URL: url });
     expect(usage.code).toBe(2);

@@ -42,7 +42,10 @@ describe("API tokens", () => {
     expect(list.tokens.map((x) => x.id)).toContain(token.id);
     expect(JSON.stringify(list)).not.toContain(secret.slice(8));
     // Audited without the secret.
-    const audit = await t.database.pool.query("select details::text as d from audit_events where action = 'token.create' and subject_id = $1", [String(token.id)]);
+    const audit = await t.database.pool.query(
+      "select details::text as d from audit_events where action = 'token.create' and subject_id = $1",
+      [String(token.id)],
+    );
     expect(audit.rows).toHaveLength(1);
     expect(audit.rows[0].d).not.toContain(secret.slice(8));
   });
@@ -51,7 +54,9 @@ describe("API tokens", () => {
     const { token, secret } = await mint(firmware);
     expect(token.lastUsedAt).toBeNull();
     const before = Date.now();
-    const res = await download(request(t.app).get(`/api/releases/${releaseId}/bundle`).set("Authorization", `Bearer ${secret}`));
+    const res = await download(
+      request(t.app).get(`/api/releases/${releaseId}/bundle`).set("Authorization", `Bearer ${secret}`),
+    );
     expect(res.status).toBe(200);
     expect(createHash("sha256").update(res.body).digest("hex")).toBe(bundleSha256);
     const row = await t.database.pool.query("select last_used_at from api_tokens where id = $1", [token.id]);
@@ -91,8 +96,16 @@ describe("API tokens", () => {
 
   it("tokens cannot manage tokens, even read-write ones (a person must sign in)", async () => {
     const { secret } = await mint(firmware, { name: "rw", scope: "read-write" });
-    expectError(await request(t.app).get("/api/tokens").set("Authorization", `Bearer ${secret}`), 403, "forbidden");
-    expectError(await request(t.app).post("/api/tokens").set("Authorization", `Bearer ${secret}`).send({ name: "x" }), 403, "forbidden");
+    expectError(
+      await request(t.app).get("/api/tokens").set("Authorization", `Bearer ${secret}`),
+      403,
+      "forbidden",
+    );
+    expectError(
+      await request(t.app).post("/api/tokens").set("Authorization", `Bearer ${secret}`).send({ name: "x" }),
+      403,
+      "forbidden",
+    );
   });
 
   it("a revoked token is refused with 401; revoking twice is 409; others cannot revoke it (404); admins can", async () => {
@@ -103,7 +116,9 @@ describe("API tokens", () => {
     expect(r.status, JSON.stringify(r.body)).toBe(200);
     expect(r.body.token.revokedAt).not.toBeNull();
     expectError(await firmware.post(`/api/tokens/${token.id}/revoke`), 409, "conflict");
-    const res = await request(t.app).get(`/api/releases/${releaseId}/bundle`).set("Authorization", `Bearer ${secret}`);
+    const res = await request(t.app)
+      .get(`/api/releases/${releaseId}/bundle`)
+      .set("Authorization", `Bearer ${secret}`);
     expectError(res, 401, "unauthenticated");
     const other = await mint(firmware);
     const admin = await t.admin();
@@ -115,7 +130,11 @@ describe("API tokens", () => {
 
   it("unknown, malformed and non-bearer credentials are 401, never a silent fall-back", async () => {
     for (const header of [`Bearer tw_${"A".repeat(43)}`, "Bearer nonsense", "Basic Zm9vOmJhcg==", "Bearer"])
-      expectError(await firmware.get(`/api/releases/${releaseId}`).set("Authorization", header), 401, "unauthenticated");
+      expectError(
+        await firmware.get(`/api/releases/${releaseId}`).set("Authorization", header),
+        401,
+        "unauthenticated",
+      );
   });
 
   it("validates the token name and scope (400 naming the field)", async () => {
