@@ -8,7 +8,7 @@ import type {
 } from "../../shared/schemas/designs";
 import type { z } from "zod";
 import type { Db } from "../db/client";
-import { coefficientTables, designs, projectMembers, projects, revisions, users } from "../db/schema";
+import { coefficientTables, designs, projectMembers, projects, releases, revisions, users } from "../db/schema";
 import { HttpError, validationFailed } from "../http/errors";
 import { MaterializeError, materialize, uploadIdsOf, type MaterializedTable } from "./materialize";
 import type { Viewer } from "./projects";
@@ -115,6 +115,7 @@ export async function designSummaries(db: Db | Tx, where: SQL | undefined): Prom
     .orderBy(asc(designs.name));
   const ids = rows.map((r) => r.id);
   const latest = new Map<number, RevisionSummary>();
+  const latestRelease = new Map<number, DesignSummary["latestRelease"]>();
   if (ids.length > 0) {
     const revs = await db
       .selectDistinctOn([revisions.designId], revisionColumns)
@@ -123,6 +124,25 @@ export async function designSummaries(db: Db | Tx, where: SQL | undefined): Prom
       .where(inArray(revisions.designId, ids))
       .orderBy(revisions.designId, desc(revisions.number));
     for (const r of revs) latest.set(r.designId, toRevisionSummary(r));
+    // The latest release a build should take: the highest version still in force, else the highest withdrawn one.
+    const rels = await db
+      .selectDistinctOn([releases.designId], {
+        designId: releases.designId,
+        id: releases.id,
+        version: releases.version,
+        withdrawnAt: releases.withdrawnAt,
+      })
+      .from(releases)
+      .where(inArray(releases.designId, ids))
+      .orderBy(
+        releases.designId,
+        sql`${releases.withdrawnAt} is null desc`,
+        desc(releases.major),
+        desc(releases.minor),
+        desc(releases.patch),
+      );
+    for (const r of rels)
+      latestRelease.set(r.designId, { id: r.id, version: r.version, withdrawn: r.withdrawnAt !== null });
   }
   return rows.map((r) => ({
     id: r.id,
@@ -132,7 +152,7 @@ export async function designSummaries(db: Db | Tx, where: SQL | undefined): Prom
     description: r.description,
     owner: { id: r.ownerId, displayName: r.ownerName },
     latestRevision: latest.get(r.id) ?? null,
-    latestRelease: null,
+    latestRelease: latestRelease.get(r.id) ?? null,
     createdAt: r.createdAt.toISOString(),
     updatedAt: r.updatedAt.toISOString(),
   }));

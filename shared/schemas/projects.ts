@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { RoleSchema, SessionUserSchema } from "./auth";
 import { HealthSchema } from "./health";
+import { HomeWorkSchema } from "./reviews";
 
 export const ProjectSchema = z.object({
   id: z.number().int(),
@@ -57,5 +58,7 @@ export const HomeSchema = z.object({
   }),
   /** Admin only. */
   health: HealthSchema.optional(),
+  /** What waits for me, per role (drafts, changes requested, review queue, newest releases). */
+  work: HomeWorkSchema.optional(),
 });
 export type Home = z.infer<typeof HomeSchema>;

@@ -261,7 +261,7 @@ describe("demo designs", () => {
     // T·fs: 50 µs × 12.5 MHz = 625; 13 chips × 1; 100 µs × 6.25 MHz = 625.
     const expected: [string, string, number][] = [
       ["Long-pulse LFM, 10 MHz / 50 µs, Taylor receive", "tx", 625],
-      ["Short pulse Barker-13", "tx", 13],
+      ["Short pulse Barker-13", "tx", 52],
       ["Low-sidelobe NLFM", "tx", 625],
     ];
     for (const [name, role, length] of expected) {

@@ -3,7 +3,7 @@ import { z } from "zod";
 import { UpdateRevisionSchema } from "../../../shared/schemas/designs";
 import { currentUser, requireRole, requireUser } from "../../auth/guards";
 import { parseInput } from "../../http/errors";
-import { getRevision, submitRevision, tableValues, updateRevision } from "../../services/revisions";
+import { getRevision, tableValues, updateRevision } from "../../services/revisions";
 import type { RouteContext } from "../context";
 import { IdParamSchema } from "../params";
 
@@ -11,7 +11,7 @@ const TableParamSchema = IdParamSchema.extend({
   tableId: z.coerce.number().int().positive("must be a positive integer"),
 });
 
-/** /api/revisions/:id: read, edit a draft, submit, download a table's values. */
+/** /api/revisions/:id: read, edit a draft, download a table's values (submit lives with the lifecycle routes). */
 export function revisionRoutes(ctx: RouteContext): Router {
   const r = Router();
   r.use(requireUser);
@@ -23,10 +23,6 @@ export function revisionRoutes(ctx: RouteContext): Router {
     const { id } = parseInput(IdParamSchema, req.params);
     const { content } = parseInput(UpdateRevisionSchema, req.body);
     res.json(await updateRevision(ctx.db, currentUser(req), id, content));
-  });
-  r.post("/:id/submit", requireRole("author"), async (req, res) => {
-    const { id } = parseInput(IdParamSchema, req.params);
-    res.json(await submitRevision(ctx.db, currentUser(req), id));
   });
   r.get("/:id/tables/:tableId/values", async (req, res) => {
     const { id, tableId } = parseInput(TableParamSchema, req.params);
