@@ -258,7 +258,7 @@ describe("demo designs", () => {
     const pid = await projectId(t.app, "coastwatch-s");
     const list = DesignListSchema.parse((await author.get(`/api/projects/${pid}/designs`)).body).designs;
     const byName = new Map(list.map((d) => [d.name, d]));
-    // T·fs: 50 µs × 12.5 MHz = 625; 13 chips × 1; 100 µs × 6.25 MHz = 625.
+    // T·fs: 50 µs × 12.5 MHz = 625; 13 chips × 4 samples per chip = 52; 100 µs × 6.25 MHz = 625.
     const expected: [string, string, number][] = [
       ["Long-pulse LFM, 10 MHz / 50 µs, Taylor receive", "tx", 625],
       ["Short pulse Barker-13", "tx", 52],
