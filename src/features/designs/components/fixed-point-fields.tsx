@@ -32,9 +32,9 @@ export function FixedPointFields({ role }: { role: Role }) {
         name={`fixedPoint.${role}.scaling`}
         label="Scaling"
         options={[
-          ["full-scale", "Full scale (largest |I|,|Q| → largest code)"],
-          ["normalize", "Normalize (power-of-two gain)"],
-          ["as-given", "As given (use F)"],
+          ["full-scale", "Full scale"],
+          ["normalize", "Normalize (2^k gain)"],
+          ["as-given", "As given (F)"],
         ]}
       />
       <SelectField
