@@ -11,7 +11,7 @@ import path from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
 import { builtinTemplate } from "../../../server/exports/builtins";
 import { renderExport } from "../../../server/exports/render";
-import { edge32Case, firCase, lfmCase, type TableCase } from "./tables";
+import { edge32Case, firCase, lfmCase, unsigned8Case, type TableCase } from "./tables";
 
 function has(tool: string): boolean {
   return spawnSync("sh", ["-c", `command -v ${tool}`], { encoding: "utf8" }).status === 0;
@@ -50,10 +50,10 @@ function dir(name: string): string {
 
 const numbers = (out: string) => out.trim().split(/\s+/).map(Number);
 
-const CASES = [lfmCase(), firCase(), edge32Case()];
+const CASES = [lfmCase(), firCase(), edge32Case(), unsigned8Case()];
 
 describe("the fixtures are what the tests claim", () => {
-  it("LFM: 100 complex 16-bit taps; FIR: 12-bit with negative taps and −2048; edge: ±2^31 extremes", () => {
+  it("LFM: 100 complex 16-bit taps; FIR: 12-bit with negative taps and −2048; edge: ±2^31 extremes; unsigned 8-bit", () => {
     const [lfm, fir, edge] = CASES as [TableCase, TableCase, TableCase];
     expect(lfm.ctx.table.length).toBe(100);
     expect(lfm.ctx.spec.word_length).toBe(16);
@@ -63,12 +63,14 @@ describe("the fixtures are what the tests claim", () => {
     expect(fir.codesI.filter((c) => c < 0).length).toBeGreaterThan(1);
     expect(fir.codesI.filter((c) => c > 0).length).toBeGreaterThan(1);
     expect(edge.codesI).toEqual([-(2 ** 31), 2 ** 31 - 1, -1, 0, 2 ** 30]);
+    expect(CASES[3]!.codesI).toEqual([0, 1, 128, 192, 255, 26]); // 0.1·256 = 25.6 → 26
   });
 });
 
 describe.each(CASES)("$label", (c) => {
   const expectedWords = c.ctx.table.complex ? c.codesI.flatMap((v, k) => [v, c.codesQ[k]!]) : c.codesI;
   const W = c.ctx.spec.word_length;
+  const signed = c.ctx.spec.signed;
 
   it.skipIf(!TOOLS.iverilog)(
     "$readmemh in Icarus Verilog (-g2012) prints the quantized integers, sign-extended",
@@ -83,7 +85,7 @@ describe.each(CASES)("$label", (c) => {
       writeFileSync(
         path.join(d, "tb.v"),
         `module tb;
-  reg signed [${W - 1}:0] mem [0:${expectedWords.length - 1}];
+  reg ${signed ? "signed " : ""}[${W - 1}:0] mem [0:${expectedWords.length - 1}];
   integer k;
   initial begin
     $readmemh("table.hex", mem);
@@ -140,7 +142,7 @@ ${arrays.map((a) => `    printf("%lld\\n", (long long)${a}[k]);`).join("\n")}
       ]);
       expect(rest.map(Number)).toEqual(expectedWords);
       const type = h.text.match(/static const (\w+) /)?.[1];
-      expect(type).toBe(W <= 8 ? "int8_t" : W <= 16 ? "int16_t" : "int32_t");
+      expect(type).toBe(`${signed ? "" : "u"}${W <= 8 ? "int8_t" : W <= 16 ? "int16_t" : "int32_t"}`);
     },
   );
 
@@ -232,7 +234,17 @@ end architecture sim;
     expect(bin.bytes.length).toBe(expectedWords.length * bytes);
     const view = new DataView(bin.bytes.buffer, bin.bytes.byteOffset, bin.bytes.byteLength);
     const read = expectedWords.map((_, k) =>
-      bytes === 1 ? view.getInt8(k) : bytes === 2 ? view.getInt16(2 * k, true) : view.getInt32(4 * k, true),
+      signed
+        ? bytes === 1
+          ? view.getInt8(k)
+          : bytes === 2
+            ? view.getInt16(2 * k, true)
+            : view.getInt32(4 * k, true)
+        : bytes === 1
+          ? view.getUint8(k)
+          : bytes === 2
+            ? view.getUint16(2 * k, true)
+            : view.getUint32(4 * k, true),
     );
     expect(read).toEqual(expectedWords);
   });

@@ -113,3 +113,17 @@ export function edge32Case(): TableCase {
     false,
   );
 }
+
+/** Unsigned W = 8 words (0 and 255 included): uint8_t, unsigned(7 downto 0), unsigned binary bytes. */
+export function unsigned8Case(): TableCase {
+  const values = [0, 1 / 256, 0.5, 0.75, 255 / 256, 0.1];
+  const re = Float64Array.from(values);
+  return make(
+    "8-bit unsigned words",
+    "Gain ramp",
+    "fir",
+    { re, im: new Float64Array(re.length) },
+    { ...base, signed: false, wordLength: 8, fractionLength: 8, scaling: "as-given" },
+    false,
+  );
+}
