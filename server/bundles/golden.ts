@@ -11,6 +11,8 @@ import { hexWord } from "../../shared/exports/words";
 
 /** Widest output word written to the golden files (a 32-bit word is what firmware buses carry). */
 export const GOLDEN_MAX_OUTPUT_BITS = 32;
+/** At most this many multiply-accumulates per golden run (measured: 2.0 s for 65,536 complex taps on one core here). */
+export const GOLDEN_MAX_MACS = 200_000_000;
 /** Complex noise RMS relative to full scale in every golden stimulus. */
 export const GOLDEN_NOISE_RMS = 0.05;
 
@@ -89,7 +91,9 @@ const IMPULSE: ComplexSignal = { re: Float64Array.of(1), im: Float64Array.of(0) 
 
 function scenarioShape(kind: GoldenInput["kind"], waveformLength: number, filterLength: number) {
   // Two targets, the second weaker and overlapping the first's tail, plus room for the filter to ring out.
-  const length = Math.min(2 * waveformLength + filterLength + 32, 65_536);
+  // The release waits for this inside its transaction: bound the multiply-accumulates (length × taps).
+  const budget = Math.max(256, Math.floor(GOLDEN_MAX_MACS / Math.max(1, filterLength)));
+  const length = Math.min(2 * waveformLength + filterLength + 32, 65_536, budget);
   const second = Math.min(
     length - 1,
     8 + Math.max(1, Math.floor(waveformLength / 2)) + (kind === "filter" ? 24 : 0),
