@@ -73,3 +73,15 @@ export function senderFor(db: Db): Promise<PgBoss> {
 export async function sendAnalysis(boss: PgBoss, data: AnalysisJobData): Promise<string | null> {
   return boss.send(ANALYSIS_QUEUE, { ...data }, { singletonKey: data.contentHash });
 }
+
+/**
+ * Is a job for this hash still waiting, retrying or active? False when pg-boss gave up on it (retries
+ * exhausted by expiry, e.g. workers killed each time) while the row still says queued or running.
+ */
+export async function hasLiveJob(db: Db, contentHash: string): Promise<boolean> {
+  const r = await poolOf(db).query(
+    "select 1 from pgboss.job where name = $1 and singleton_key = $2 and state in ('created', 'retry', 'active') limit 1",
+    [ANALYSIS_QUEUE, contentHash],
+  );
+  return r.rows.length > 0;
+}

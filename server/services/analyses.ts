@@ -58,8 +58,12 @@ async function rowByHash(db: Db, hash: string): Promise<Row | undefined> {
   return row;
 }
 
-/** A job sender (server/jobs/queue.ts sendAnalysis bound to a pg-boss instance). */
-export type SendAnalysis = (data: { contentHash: string; revisionId: number }) => Promise<unknown>;
+/** The queue as the service needs it (server/jobs/queue.ts). */
+export interface AnalysisQueue {
+  send(data: { contentHash: string; revisionId: number }): Promise<unknown>;
+  /** Whether pg-boss still holds a waiting or active job for the hash. */
+  isLive(contentHash: string): Promise<boolean>;
+}
 
 /**
  * POST /api/revisions/:id/analysis: enqueue the analysis of the revision's current content unless it is
@@ -69,7 +73,7 @@ export async function requestAnalysis(
   db: Db,
   viewer: Viewer,
   revisionId: number,
-  send: SendAnalysis,
+  queue: AnalysisQueue,
 ): Promise<AnalysisStatus> {
   await getRevision(db, viewer, revisionId); // membership: non-members get 404
   const hash = await currentContentHash(db, revisionId);
@@ -80,7 +84,9 @@ export async function requestAnalysis(
     .returning();
   let row = inserted ?? (await rowByHash(db, hash));
   if (!row) throw new Error(`analysis row for ${hash} vanished`);
-  if (row.state === "failed") {
+  // A row left queued or running by a job pg-boss gave up on (every attempt's worker lost): queue it again.
+  const stale = (row.state === "queued" || row.state === "running") && !(await queue.isLive(hash));
+  if (row.state === "failed" || stale) {
     const [requeued] = await db
       .update(analysisReports)
       .set({
@@ -93,12 +99,12 @@ export async function requestAnalysis(
         finishedAt: null,
         durationMs: null,
       })
-      .where(and(eq(analysisReports.id, row.id), eq(analysisReports.state, "failed")))
+      .where(and(eq(analysisReports.id, row.id), eq(analysisReports.state, row.state)))
       .returning();
     row = requeued ?? row;
   }
   // Queued (new, re-queued, or a send that failed before): send; pg-boss collapses a duplicate waiting job.
-  if (row.state === "queued") await send({ contentHash: hash, revisionId });
+  if (row.state === "queued") await queue.send({ contentHash: hash, revisionId });
   return toStatus(row);
 }
 

@@ -151,6 +151,22 @@ describe("failures and access", () => {
     await pollAnalysis(author, revision.id, (a) => a?.state === "failed");
   });
 
+  it("a row left running by a job pg-boss gave up on is queued again by the next request", async () => {
+    const author = await signedIn(t.app, "author");
+    const { revision } = await newDesign(t, author, { ...taylorLfm, sweep: undefined });
+    expect((await author.post(`/api/revisions/${revision.id}/analysis`)).status).toBe(202);
+    const done = (await pollAnalysis(author, revision.id, (a) => a?.state === "done"))!;
+    // Injected: the row says running but pg-boss holds no live job (as after retries exhausted by expiry).
+    await t.database.pool.query(
+      "update analysis_reports set state = 'running', report = null, progress = 0.4 where content_hash = $1",
+      [done.contentHash],
+    );
+    const again = await author.post(`/api/revisions/${revision.id}/analysis`);
+    expect(AnalysisResponseSchema.parse(again.body).analysis).toMatchObject({ state: "queued", progress: 0 });
+    const redone = (await pollAnalysis(author, revision.id, (a) => a?.state === "done"))!;
+    expect(redone.report).toEqual(done.report);
+  });
+
   it("non-members get 404 on every analysis route; firmware gets 403 on POST; signed-out 401", async () => {
     const author = await signedIn(t.app, "author");
     // The reviewer is not a member of harbour-lidar-trials (demo seed).

@@ -1,7 +1,7 @@
 import { Router } from "express";
 import { currentUser, requireRole, requireUser } from "../../auth/guards";
 import { parseInput } from "../../http/errors";
-import { senderFor, sendAnalysis } from "../../jobs/queue";
+import { hasLiveJob, senderFor, sendAnalysis } from "../../jobs/queue";
 import { renderReportHtml } from "../../reports/render-html";
 import { getAnalysis, getReportDocument, requestAnalysis } from "../../services/analyses";
 import type { RouteContext } from "../context";
@@ -13,9 +13,14 @@ export function analysisRoutes(ctx: RouteContext): Router {
   r.use(requireUser);
   r.post("/:id/analysis", requireRole("author", "reviewer"), async (req, res) => {
     const { id } = parseInput(IdParamSchema, req.params);
-    const analysis = await requestAnalysis(ctx.db, currentUser(req), id, async (data) =>
-      sendAnalysis(await senderFor(ctx.db), data),
-    );
+    const analysis = await requestAnalysis(ctx.db, currentUser(req), id, {
+      send: async (data) => sendAnalysis(await senderFor(ctx.db), data),
+      // Starting the sender creates pg-boss's schema, so it comes first.
+      isLive: async (hash) => {
+        await senderFor(ctx.db);
+        return hasLiveJob(ctx.db, hash);
+      },
+    });
     res.status(202).json({ analysis });
   });
   r.get("/:id/analysis", async (req, res) => {
