@@ -12,8 +12,10 @@ import { asciiText, binWord, cLiteral, hexWord, padText, twosComplement } from "
 export const TEMPLATE_LIMITS = {
   /** Characters of template source. */
   maxBodyChars: 64 * 1024,
-  /** Milliseconds of render time (liquidjs renderLimit). */
+  /** Milliseconds of render time (liquidjs renderLimit) for a real table. */
   renderMs: 2_000,
+  /** Milliseconds for a preview or validation render on a sample table (tiny; a slow one is a runaway). */
+  previewMs: 500,
   /** Characters liquidjs may allocate while rendering (memoryLimit; a rough count). */
   memoryChars: 64 * 1024 * 1024,
   /** Characters of rendered output. */
@@ -143,11 +145,16 @@ export function parseTemplate(body: string): Template[] {
 }
 
 /** Renders a parsed or source template against a context; errors become TemplateError. */
-export async function renderTemplate(template: string | Template[], context: object): Promise<string> {
+export async function renderTemplate(
+  template: string | Template[],
+  context: object,
+  opts: { renderMs?: number } = {},
+): Promise<string> {
   const parsed = typeof template === "string" ? parseTemplate(template) : template;
   let out: unknown;
   try {
-    out = await engine().render(parsed, context);
+    // Rendering runs on the calling thread: the time limit bounds how long one template can hold it.
+    out = await engine().render(parsed, context, { renderLimit: opts.renderMs ?? TEMPLATE_LIMITS.renderMs });
   } catch (err) {
     throw toTemplateError(err);
   }

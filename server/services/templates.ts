@@ -18,7 +18,7 @@ import {
 import type { Db } from "../db/client";
 import { exportTemplates, exportTemplateVersions, users } from "../db/schema";
 import { builtinTemplate, builtinTemplates, type BuiltinTemplate } from "../exports/builtins";
-import { renderTemplate, TemplateError } from "../exports/engine";
+import { renderTemplate, TEMPLATE_LIMITS, TemplateError } from "../exports/engine";
 import type { RenderableTemplate } from "../exports/render";
 import { HttpError } from "../http/errors";
 import { recordAudit } from "./audit";
@@ -105,7 +105,9 @@ export async function renderableTemplates(db: Db, ids: readonly string[]): Promi
 /** Renders a body on a sample table; the answer carries the text or the problem with line and column. */
 export async function previewTemplate(body: string, sample: SampleKind): Promise<PreviewResult> {
   try {
-    const text = await renderTemplate(body, sampleExportContext(sample));
+    const text = await renderTemplate(body, sampleExportContext(sample), {
+      renderMs: TEMPLATE_LIMITS.previewMs,
+    });
     const bytes = Buffer.byteLength(text, "utf8");
     return text.length > PREVIEW_TEXT_MAX
       ? { ok: true, text: text.slice(0, PREVIEW_TEXT_MAX), truncated: true, bytes }

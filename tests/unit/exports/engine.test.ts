@@ -137,6 +137,21 @@ describe("the sandboxed engine", () => {
     expect(e.message).toMatch(/limit/);
   });
 
+  it("stops a CPU-bound loop that writes nothing by its render time limit", async () => {
+    const started = performance.now();
+    await expect(
+      renderTemplate(
+        "{% for a in (1..3000) %}{% for b in (1..3000) %}{% endfor %}{% endfor %}",
+        sampleExportContext("real"),
+        {
+          renderMs: 300,
+        },
+      ),
+    ).rejects.toThrow(/render limit/);
+    // Generous bound: the limit is checked between steps, so it may overshoot a little on a loaded machine.
+    expect(performance.now() - started).toBeLessThan(5_000);
+  });
+
   it("refuses a template longer than 64 KiB before parsing", () => {
     expect(() => parseTemplate("x".repeat(64 * 1024 + 1))).toThrow(/longer than/);
   });
