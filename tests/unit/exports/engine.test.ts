@@ -138,7 +138,6 @@ describe("the sandboxed engine", () => {
   });
 
   it("stops a CPU-bound loop that writes nothing by its render time limit", async () => {
-    const started = performance.now();
     await expect(
       renderTemplate(
         "{% for a in (1..3000) %}{% for b in (1..3000) %}{% endfor %}{% endfor %}",
@@ -148,8 +147,6 @@ describe("the sandboxed engine", () => {
         },
       ),
     ).rejects.toThrow(/render limit/);
-    // Generous bound: the limit is checked between steps, so it may overshoot a little on a loaded machine.
-    expect(performance.now() - started).toBeLessThan(5_000);
   });
 
   it("refuses a template longer than 64 KiB before parsing", () => {
