@@ -12,11 +12,11 @@ const q = (wordLength: number) => ({ wordLength, fractionLength: wordLength - 1,
 export const DEMO_DESIGNS: readonly CreateDesignInput[] = [
   {
     name: "Long-pulse LFM, 10 MHz / 50 µs, Taylor receive",
-    description: "Long pulse for the instrumented range; Taylor n̄ = 5, −35 dB receive weighting against range sidelobes.",
+    description: "Long pulse for the instrumented range; Taylor n̄ = 6, −35 dB receive weighting against range sidelobes.",
     content: {
       kind: "waveform",
       tx: { kind: "lfm", bandwidthHz: 10e6, pulseWidthS: 50e-6, sampleRateHz: 12.5e6 },
-      rx: { window: { kind: "taylor", nbar: 5, sidelobeDb: -35 } },
+      rx: { window: { kind: "taylor", nbar: 6, sidelobeDb: -35 } },
       fixedPoint: { tx: q(16), rx: q(16) },
       limits: { pslDbMax: -32, islrDbMax: -25, mismatchLossDbMax: 1.5, peakLossDbMax: 0.1, coefficientSqnrDbMin: 70 },
     },
@@ -38,7 +38,7 @@ export const DEMO_DESIGNS: readonly CreateDesignInput[] = [
     description: "Study waveform: stationary-phase NLFM with a Taylor-shaped spectrum, matched receive (no weighting loss).",
     content: {
       kind: "waveform",
-      tx: { kind: "nlfm", bandwidthHz: 5e6, pulseWidthS: 100e-6, sampleRateHz: 6.25e6, window: { kind: "taylor", nbar: 5, sidelobeDb: -40 } },
+      tx: { kind: "nlfm", bandwidthHz: 5e6, pulseWidthS: 100e-6, sampleRateHz: 6.25e6, window: { kind: "taylor", nbar: 7, sidelobeDb: -40 } },
       fixedPoint: { tx: q(16), rx: q(16) },
       limits: { pslDbMax: -30, mismatchLossDbMax: 0.5, coefficientSqnrDbMin: 70 },
     },

@@ -11,6 +11,7 @@ const STATUS: Record<ErrorCode, number> = {
   conflict: 409,
   rate_limited: 429,
   internal: 500,
+  bundle_corrupt: 500,
 };
 
 /** The one error type the server throws on purpose; the error middleware turns it into JSON. */

@@ -45,13 +45,13 @@ export const UploadedFirSourceSchema = z.object({
 });
 
 /** Generator sources for a waveform's transmit table (everything except explicit samples, which come by upload). */
-export const AuthoredWaveformSourceSchema = z.union([
+export const AuthoredWaveformSourceSchema = z.discriminatedUnion("kind", [
   WaveformSourceSchema.options[0],
   WaveformSourceSchema.options[1],
   WaveformSourceSchema.options[2],
   UploadedWaveformSourceSchema,
 ]);
-export const AuthoredFirSourceSchema = z.union([FirSourceSchema.options[0], UploadedFirSourceSchema]);
+export const AuthoredFirSourceSchema = z.discriminatedUnion("kind", [FirSourceSchema.options[0], UploadedFirSourceSchema]);
 
 const analysisOptions = {
   interpolation: z.number().int().min(1).max(16).default(8),

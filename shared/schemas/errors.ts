@@ -20,5 +20,7 @@ export const ERROR_CODES = [
   "conflict",
   "rate_limited",
   "internal",
+  /** A stored release bundle no longer matches its SHA-256: refused, never served. */
+  "bundle_corrupt",
 ] as const;
 export type ErrorCode = (typeof ERROR_CODES)[number];
