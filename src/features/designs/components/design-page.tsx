@@ -5,6 +5,7 @@ import { CopyButton } from "@/components/ui/copy-button";
 import { PageHeader, Section } from "@/components/ui/page";
 import { EmptyState, ErrorState, Skeleton, TableSkeleton } from "@/components/ui/states";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
+import { DesignReleases } from "@/features/reviews/components/design-releases";
 import { ApiError } from "@/lib/api-client";
 import { formatDateTime } from "@/lib/format";
 import { openDraftId, useDesign, useStartRevision } from "../api/get-design";
@@ -160,7 +161,7 @@ export function DesignPage() {
         )}
       </Section>
       <Section title="Releases">
-        <EmptyState title="No releases">An approved revision can be released as a version; releases will be listed here.</EmptyState>
+        <DesignReleases designId={design.id} />
       </Section>
     </>
   );

@@ -9,6 +9,7 @@ import { EmptyState, ErrorState, Skeleton, TableSkeleton } from "@/components/ui
 import { formatCount, formatDuration } from "@/lib/format";
 import { ROLE_LABELS } from "@/lib/roles";
 import { useHome } from "../api/get-home";
+import { WorkSections } from "./work-sections";
 
 // What each role gets done here (DESIGN.md, "Who uses it"), so the home page says why you are here.
 const ROLE_DUTIES: Record<Role, string> = {
@@ -85,6 +86,7 @@ export function HomePage({ renderProjects }: { renderProjects: (projects: readon
         }
       />
       <StatStrip home={home.data} />
+      <WorkSections roles={user.roles} />
       <Section title="My roles">
         <ul className="divide-y divide-paper-200 rounded border border-paper-300 bg-paper-50">
           {user.roles.map((r) => (

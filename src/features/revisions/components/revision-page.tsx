@@ -9,6 +9,8 @@ import { PageHeader, Section } from "@/components/ui/page";
 import { EmptyState, ErrorState, Skeleton, TableSkeleton } from "@/components/ui/states";
 import { useToast } from "@/components/ui/toast";
 import { AnalysisSection } from "@/features/analysis/components/analysis-section";
+import { ReviewSection } from "@/features/reviews/components/review-section";
+import { SubmitForReview } from "@/features/reviews/components/submit-for-review";
 import { ApiError } from "@/lib/api-client";
 import { formatCount, formatDateTime, formatEng } from "@/lib/format";
 import { useRevision } from "../api/get-revision";
@@ -190,7 +192,7 @@ function Revision({ detail }: { detail: RevisionDetail }) {
             <>Draft: content can change until it is submitted for review</>
           )
         }
-        action={detail.canEdit ? <SubmitAction detail={detail} blocked={blocked} /> : undefined}
+        action={detail.canEdit ? <SubmitForReview detail={detail} blocked={blocked} /> : undefined}
       />
       <Section title={`Coefficient tables (${tables.length})`}>
         {tables.length === 0 ? (
@@ -216,6 +218,7 @@ function Revision({ detail }: { detail: RevisionDetail }) {
         />
       </Section>
       <AnalysisSection revisionId={revision.id} />
+      <ReviewSection revisionId={revision.id} />
       <Section title="History">
         <ol className="flex flex-col gap-1 rounded border border-paper-300 bg-paper-50 px-4 py-3 text-sm text-ink-800">
           <li>
