@@ -15,6 +15,7 @@ export interface NavItem {
 export const NAV_ITEMS: readonly NavItem[] = [
   { to: "/", label: "Home", roles: [], end: true },
   { to: "/projects", label: "Projects", roles: [] },
+  { to: "/reviews", label: "Reviews", roles: ["reviewer"] },
   { to: "/templates", label: "Templates", roles: ["admin", "author"] },
   { to: "/account", label: "Account", roles: [] },
   { to: "/admin/users", label: "Users", roles: ["admin"], group: "Admin" },

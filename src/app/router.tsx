@@ -9,6 +9,7 @@ import { AuditPage } from "@/features/audit/components/audit-page";
 import { MailboxPage } from "@/features/mailbox/components/mailbox-page";
 import { TemplateEditorRoute, TemplatesRoute } from "@/features/templates/components/template-routes";
 import { NotFoundRoute } from "./routes/not-found";
+import { ReviewsRoute } from "./routes/reviews";
 import { AccountRoute, AdminUsersRoute, HomeRoute } from "./routes/pages";
 import { SignInRoute } from "./routes/sign-in";
 import { Shell } from "./shell";
@@ -26,6 +27,7 @@ export const router = createBrowserRouter([
       { path: "designs/:id", element: <DesignPage /> },
       { path: "revisions/:id", element: <RevisionPage /> },
       { path: "revisions/:id/report", element: <ReportPage /> },
+      { path: "reviews", element: <ReviewsRoute /> },
       { path: "templates", element: <TemplatesRoute /> },
       { path: "templates/new", element: <TemplateEditorRoute /> },
       { path: "templates/:id", element: <TemplateEditorRoute /> },
