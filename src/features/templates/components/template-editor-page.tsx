@@ -196,6 +196,33 @@ function PreviewPane({
   );
 }
 
+/** One labelled single-line field of the template's metadata. */
+function TextField(props: {
+  label: string;
+  hint?: string;
+  mono?: boolean;
+  value: string;
+  onChange: (v: string) => void;
+  readOnly: boolean;
+  error: string | undefined;
+}) {
+  return (
+    <Field label={props.label} hint={props.hint} error={props.error}>
+      {({ id, describedBy, invalid }) => (
+        <Input
+          id={id}
+          aria-describedby={describedBy}
+          invalid={invalid}
+          readOnly={props.readOnly}
+          className={props.mono ? "font-mono" : undefined}
+          value={props.value}
+          onChange={(e) => props.onChange(e.target.value)}
+        />
+      )}
+    </Field>
+  );
+}
+
 function EditorForm({ initial, canEdit }: { initial: TemplateDetail | null; canEdit: boolean }) {
   const navigate = useNavigate();
   const toast = useToast();
@@ -304,43 +331,29 @@ function EditorForm({ initial, canEdit }: { initial: TemplateDetail | null; canE
           }}
         >
           <div className="grid grid-cols-1 gap-3 md:grid-cols-[2fr_3fr_1fr]">
-            <Field label="Name" error={errors.name}>
-              {({ id, describedBy, invalid }) => (
-                <Input
-                  id={id}
-                  aria-describedby={describedBy}
-                  invalid={invalid}
-                  readOnly={readOnly}
-                  value={draft.name}
-                  onChange={(e) => set("name")(e.target.value)}
-                />
-              )}
-            </Field>
-            <Field label="Description" error={errors.description}>
-              {({ id, describedBy, invalid }) => (
-                <Input
-                  id={id}
-                  aria-describedby={describedBy}
-                  invalid={invalid}
-                  readOnly={readOnly}
-                  value={draft.description}
-                  onChange={(e) => set("description")(e.target.value)}
-                />
-              )}
-            </Field>
-            <Field label="File extension" hint="without the dot" error={errors.extension}>
-              {({ id, describedBy, invalid }) => (
-                <Input
-                  id={id}
-                  aria-describedby={describedBy}
-                  invalid={invalid}
-                  readOnly={readOnly}
-                  className="font-mono"
-                  value={draft.extension}
-                  onChange={(e) => set("extension")(e.target.value)}
-                />
-              )}
-            </Field>
+            <TextField
+              label="Name"
+              value={draft.name}
+              onChange={set("name")}
+              readOnly={readOnly}
+              error={errors.name}
+            />
+            <TextField
+              label="Description"
+              value={draft.description}
+              onChange={set("description")}
+              readOnly={readOnly}
+              error={errors.description}
+            />
+            <TextField
+              label="File extension"
+              hint="without the dot"
+              mono
+              value={draft.extension}
+              onChange={set("extension")}
+              readOnly={readOnly}
+              error={errors.extension}
+            />
           </div>
           {saveError && (
             <p role="alert" className="text-sm text-fail-700">
