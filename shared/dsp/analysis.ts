@@ -6,13 +6,13 @@
  */
 import { AnalysisSpecSchema, type AnalysisSpec, type FirSource, type WaveformSource } from "../schemas/analysis";
 import { accumulatorGrowth } from "./accumulator";
-import { compress, convolutionSize, multiplySpectra, powerOf, spectrumOf } from "./compression";
+import { compress, convolutionSize, interpolationWorkspace, multiplySpectra, powerOf, spectrumOf } from "./compression";
 import { applyDoppler, dopplerCut, type DopplerCut } from "./doppler";
 import { designFir } from "./fir-design";
 import { firMagnitude, firMetrics, type Band, type FirMetrics } from "./fir-response";
 import { linearFm } from "./lfm";
 import { matchedFilter } from "./matched-filter";
-import { coefficientSqnrDb, measureSpectrum, mismatchLossDb, peakLossDb, type ResponseMetrics } from "./metrics";
+import { coefficientSqnrDb, measureInterpolated, mismatchLossDb, peakLossDb, type ResponseMetrics } from "./metrics";
 import { nonlinearFm } from "./nlfm";
 import { phaseCode } from "./phase-codes";
 import { quantize } from "./quantize";
@@ -287,10 +287,13 @@ export function envelope(
     let bmin = Infinity;
     let bmax = -Infinity;
     for (let i = s; i < e; i++) {
-      amin = Math.min(amin, a[i]!);
-      amax = Math.max(amax, a[i]!);
-      bmin = Math.min(bmin, b[i]!);
-      bmax = Math.max(bmax, b[i]!);
+      // Plain comparisons: same result as Math.min/max on the finite values met here, and faster.
+      const va = a[i]!;
+      const vb = b[i]!;
+      if (va < amin) amin = va;
+      if (va > amax) amax = va;
+      if (vb < bmin) bmin = vb;
+      if (vb > bmax) bmax = vb;
     }
     trace.x.push(round(xOf(s), 4), round(xOf(e - 1), 4));
     trace.floatDb.push(dbOf(amin), dbOf(amax));
@@ -337,10 +340,15 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
   const sqSpec = spectrumOf(sq, size);
   const expectedIndex = (n - 1) * u;
   const measureOpts = { interpolation: u, sampleRateHz: fs, expectedIndex };
+  // One interpolation scratch for every ×U output of this analysis; the complex float output is kept
+  // only for the sweep, the fixed one never (its |y|² is all the figures and plots need).
+  const workspace = { interpolation: interpolationWorkspace(size) };
   progress(0.1, "float");
-  const fl = measureSpectrum(multiplySpectra(sSpec, spectrumOf(h, size)), measureOpts);
+  const hSpec = spectrumOf(h, size);
+  const fl = measureInterpolated(multiplySpectra(sSpec, hSpec, hSpec), measureOpts, { complex: spec.sweep !== undefined, workspace });
   progress(0.35, "fixed");
-  const fx = measureSpectrum(multiplySpectra(sqSpec, spectrumOf(hq, size)), measureOpts);
+  const hqSpec = spectrumOf(hq, size);
+  const fx = measureInterpolated(multiplySpectra(sqSpec, hqSpec, hqSpec), measureOpts, { complex: false, workspace });
   const floatFig = compressionFigures(fl.metrics, mismatchLossDb(s, h));
   const fixedFig = compressionFigures(fx.metrics, mismatchLossDb(sq, hq), peakLossDb(fl.metrics.peakAmplitude, fx.metrics.peakAmplitude));
   const tables = [tableReport("tx", s, qs, null), tableReport("rx", h, qh, spec.inputBits)];
@@ -381,7 +389,7 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
   if (spec.sweep) {
     progress(0.7, "sweep");
     const swept = spec.sweep.tables ?? ["rx"];
-    const ctx = prepareSweep({ floatFine: fl.y, floatMetrics: fl.metrics, size, interpolation: u, sampleRateHz: fs, expectedIndex });
+    const ctx = prepareSweep({ floatFine: fl.y!, floatMetrics: fl.metrics, size, interpolation: u, sampleRateHz: fs, expectedIndex, workspace: { power: new Float64Array(size * u), ...workspace } });
     const fixedTxSpec = swept.includes("tx") ? null : sqSpec;
     const evaluate = (w: number, full: boolean) => {
       const txSpec = sweepSpec(spec.fixedPoint.tx, w);

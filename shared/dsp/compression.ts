@@ -40,14 +40,140 @@ export function multiplySpectra(a: Float64Array, b: Float64Array, out?: Float64A
 }
 
 /**
+ * e^{j2π·q/N} for integer q, from two small tables (q = a·L + b): about one ulp, no trig per call.
+ * Cached per N, like the FFT plans (a few KiB each).
+ */
+interface RootTable {
+  n: number;
+  l: number;
+  hi: Float64Array;
+  lo: Float64Array;
+}
+const rootTables = new Map<number, RootTable>();
+function rootTable(n: number): RootTable {
+  let t = rootTables.get(n);
+  if (!t) {
+    const l = Math.ceil(Math.sqrt(n));
+    const hi = new Float64Array(2 * (Math.ceil(n / l) + 1));
+    const lo = new Float64Array(2 * l);
+    for (let a = 0; 2 * a < hi.length; a++) {
+      hi[2 * a] = Math.cos((2 * Math.PI * a * l) / n);
+      hi[2 * a + 1] = Math.sin((2 * Math.PI * a * l) / n);
+    }
+    for (let b = 0; b < l; b++) {
+      lo[2 * b] = Math.cos((2 * Math.PI * b) / n);
+      lo[2 * b + 1] = Math.sin((2 * Math.PI * b) / n);
+    }
+    t = { n, l, hi, lo };
+    rootTables.set(n, t);
+  }
+  return t;
+}
+
+/** Scratch for `interpolateInto`: two interleaved buffers of M points (reusable across calls of the same M). */
+export interface InterpolationWorkspace {
+  phase: Float64Array;
+  out: Float64Array;
+}
+
+/** A workspace for spectra of `size` points (allocate once per analysis, pass to every call). */
+export function interpolationWorkspace(size: number): InterpolationWorkspace {
+  return { phase: new Float64Array(2 * size), out: new Float64Array(2 * size) };
+}
+
+/**
+ * Band-limited interpolation ×U of a period-M sequence from its interleaved spectrum, written into
+ * `y` (complex, M·U interleaved points) and/or `power` (|y|², M·U points); either may be omitted.
+ *
+ * The zero-padded MU-point inverse of `interpolateSpectrum` is split by output phase (decimation in
+ * time of the long inverse): y_U[n·U + r] = IDFT_M(Y[k]·e^{j2π·κ(k)·r/(MU)})[n], κ(k) the signed
+ * frequency (k below M/2, k − M above), and at the Nyquist bin the two halves ±M/2 sum to
+ * Y[M/2]·cos(π·r/U). U transforms of M points instead of one of MU points: fewer operations
+ * (log2 M vs log2 MU per point), no MU-point buffer, each transform fits the cache, and any U works.
+ */
+export function interpolateInto(
+  spectrum: Float64Array,
+  interpolation: number,
+  target: { y?: Float64Array; power?: Float64Array },
+  workspace?: InterpolationWorkspace,
+): void {
+  checkInteger("interpolation", interpolation, 1, MAX_INTERPOLATION);
+  const u = interpolation;
+  const m = spectrum.length / 2;
+  const big = m * u;
+  const { y, power } = target;
+  if (y && y.length !== 2 * big) throw new RangeError(`y must hold ${big} complex points`);
+  if (power && power.length !== big) throw new RangeError(`power must hold ${big} points`);
+  const ws = workspace ?? interpolationWorkspace(m);
+  if (ws.phase.length !== spectrum.length || ws.out.length !== spectrum.length)
+    throw new RangeError("workspace does not match the spectrum length");
+  const roots = u > 1 ? rootTable(big) : null;
+  const half = m / 2;
+  for (let r = 0; r < u; r++) {
+    let src = spectrum;
+    if (r > 0) {
+      const { l, hi, lo } = roots!;
+      const ph = ws.phase;
+      for (let k = 0; k < m; k++) {
+        if (k === half) {
+          const c = Math.cos((Math.PI * r) / u);
+          ph[2 * k] = c * spectrum[2 * k]!;
+          ph[2 * k + 1] = c * spectrum[2 * k + 1]!;
+          continue;
+        }
+        let q = (k < half ? k : k - m) * r;
+        if (q < 0) q += big;
+        const a = 2 * Math.floor(q / l);
+        const b = 2 * (q - (a / 2) * l);
+        const hr = hi[a]!;
+        const hq = hi[a + 1]!;
+        const lr = lo[b]!;
+        const lq = lo[b + 1]!;
+        const wr = hr * lr - hq * lq;
+        const wi = hr * lq + hq * lr;
+        const xr = spectrum[2 * k]!;
+        const xi = spectrum[2 * k + 1]!;
+        ph[2 * k] = xr * wr - xi * wi;
+        ph[2 * k + 1] = xr * wi + xi * wr;
+      }
+      src = ph;
+    }
+    const z = fftInterleaved(src, true, ws.out); // fft.js scales by 1/M, as the MU-point inverse of U·Y did
+    if (y) {
+      for (let n = 0, j = 2 * r; n < m; n++, j += 2 * u) {
+        y[j] = z[2 * n]!;
+        y[j + 1] = z[2 * n + 1]!;
+      }
+    }
+    if (power) {
+      for (let n = 0, j = r; n < m; n++, j += u) {
+        const zr = z[2 * n]!;
+        const zi = z[2 * n + 1]!;
+        power[j] = zr * zr + zi * zi;
+      }
+    }
+  }
+}
+
+/**
  * Band-limited interpolation ×U of the period-M sequence whose interleaved spectrum is `spectrum`:
  * zeros go in the middle of the spectrum, the Nyquist bin (k = M/2) is split half to +M/2 and half to
- * −M/2 so real sequences stay real and y_U[U·n] = y[n] exactly. Returns M·U interleaved samples.
+ * −M/2 so real sequences stay real and y_U[U·n] = y[n] exactly. Returns M·U interleaved samples
+ * (computed phase by phase, see `interpolateInto`; `interpolateSpectrumPadded` is the textbook form).
  */
 export function interpolateSpectrum(spectrum: Float64Array, interpolation: number, out?: Float64Array): Float64Array {
   checkInteger("interpolation", interpolation, 1, MAX_INTERPOLATION);
   const m = spectrum.length / 2;
   if (interpolation === 1) return fftInterleaved(spectrum, true, out);
+  const y = out ?? new Float64Array(2 * m * interpolation);
+  interpolateInto(spectrum, interpolation, { y });
+  return y;
+}
+
+/** The textbook form of `interpolateSpectrum`: one MU-point inverse of the zero-padded spectrum (tests compare the two). */
+export function interpolateSpectrumPadded(spectrum: Float64Array, interpolation: number): Float64Array {
+  checkInteger("interpolation", interpolation, 1, MAX_INTERPOLATION);
+  const m = spectrum.length / 2;
   const big = m * interpolation;
   const padded = new Float64Array(2 * big);
   const u = interpolation; // fft.js scales the inverse by 1/(MU); ×U restores the 1/M of the short inverse
@@ -63,11 +189,12 @@ export function interpolateSpectrum(spectrum: Float64Array, interpolation: numbe
   }
   const nyRe = (u * spectrum[2 * half]!) / 2;
   const nyIm = (u * spectrum[2 * half + 1]!) / 2;
+  // Both halves land on the same bin when U = 1 (big − half = half): add, do not overwrite.
   padded[2 * half] = nyRe;
   padded[2 * half + 1] = nyIm;
-  padded[2 * (big - half)] = nyRe;
-  padded[2 * (big - half) + 1] = nyIm;
-  return fftInterleaved(padded, true, out);
+  padded[2 * (big - half)] = padded[2 * (big - half)]! + nyRe;
+  padded[2 * (big - half) + 1] = padded[2 * (big - half) + 1]! + nyIm;
+  return fftInterleaved(padded, true);
 }
 
 /**

@@ -5,7 +5,7 @@
  * 2nd ed., 2014, ch. 4 (PSL/ISLR, loss in peak gain vs SNR loss) — only the mainlobe rule is ours.
  */
 import { checkFiniteNumber, checkSignal } from "./check";
-import { interpolateSpectrum, powerOf } from "./compression";
+import { interpolateInto, type InterpolationWorkspace } from "./compression";
 import type { ComplexSignal } from "./types";
 
 /** Speed of light in vacuum, m/s (SI definition, exact). */
@@ -81,25 +81,16 @@ export interface MeasureOptions {
 
 const db10 = (x: number) => 10 * Math.log10(x);
 
-/** Peak, PSL, ISLR and −3 dB width from |y|² on the ×U grid; an all-zero output is a RangeError. */
-export function measureResponse(power: Float64Array, opts: MeasureOptions): ResponseMetrics {
+function lobeEnergy(power: Float64Array, lobe: Mainlobe): number {
+  let e = 0;
+  for (let i = lobe.left; i <= lobe.right; i++) e += power[i]!;
+  return e;
+}
+
+/** The figures once peak, mainlobe, its energy, the total energy and the largest sidelobe are known. */
+function figuresOf(power: Float64Array, opts: MeasureOptions, peak: number, lobe: Mainlobe, mainE: number, total: number, maxSide: number): ResponseMetrics {
   const u = opts.interpolation;
-  checkFiniteNumber("sampleRateHz", opts.sampleRateHz);
-  const peak = argMax(power);
   const peakPower = power[peak]!;
-  if (!(peakPower > 0)) throw new RangeError("compressed output is zero everywhere: no peak to measure");
-  const lobe = findMainlobe(power, peak);
-  let mainE = 0;
-  for (let i = lobe.left; i <= lobe.right; i++) mainE += power[i]!;
-  let total = opts.totalEnergy;
-  let maxSide = 0;
-  if (total === undefined) {
-    total = mainE;
-    for (let i = 0; i < lobe.left; i++) total += power[i]!;
-    for (let i = lobe.right + 1; i < power.length; i++) total += power[i]!;
-  }
-  for (let i = 0; i < lobe.left; i++) if (power[i]! > maxSide) maxSide = power[i]!;
-  for (let i = lobe.right + 1; i < power.length; i++) if (power[i]! > maxSide) maxSide = power[i]!;
   const sideE = Math.max(total - mainE, 0);
   const half = peakPower / 2;
   const w = (halfPowerCrossing(power, peak, half, 1) - halfPowerCrossing(power, peak, half, -1)) / u;
@@ -115,6 +106,68 @@ export function measureResponse(power: Float64Array, opts: MeasureOptions): Resp
     width3dbMetres: (seconds * SPEED_OF_LIGHT) / 2,
     mainlobeSamples: { left: (lobe.left - peak) / u, right: (lobe.right - peak) / u },
   };
+}
+
+/** Block length of the sidelobe maxima kept by the first pass of `measureResponse`. */
+const BLOCK = 256;
+
+/** Peak, PSL, ISLR and −3 dB width from |y|² on the ×U grid; an all-zero output is a RangeError. */
+export function measureResponse(power: Float64Array, opts: MeasureOptions): ResponseMetrics {
+  checkFiniteNumber("sampleRateHz", opts.sampleRateHz);
+  // One pass over the grid: the peak (first on ties), Σ|y|² and the maximum of every block, so the
+  // largest sidelobe needs only the blocks outside the mainlobe, not a second pass.
+  const len = power.length;
+  const blocks = new Float64Array(Math.ceil(len / BLOCK));
+  let peak = 0;
+  let peakPower = -Infinity;
+  let sum = 0;
+  for (let b = 0, i = 0; i < len; b++) {
+    const end = Math.min(i + BLOCK, len);
+    let bm = 0;
+    for (; i < end; i++) {
+      const v = power[i]!;
+      sum += v;
+      if (v > bm) bm = v;
+      if (v > peakPower) {
+        peakPower = v;
+        peak = i;
+      }
+    }
+    blocks[b] = bm;
+  }
+  if (!(peakPower > 0)) throw new RangeError("compressed output is zero everywhere: no peak to measure");
+  const lobe = findMainlobe(power, peak);
+  const mainE = lobeEnergy(power, lobe);
+  const total = opts.totalEnergy ?? sum;
+  let maxSide = 0;
+  const firstBlock = Math.floor(lobe.left / BLOCK);
+  const lastBlock = Math.floor(lobe.right / BLOCK);
+  for (let b = 0; b < firstBlock; b++) if (blocks[b]! > maxSide) maxSide = blocks[b]!;
+  for (let b = lastBlock + 1; b < blocks.length; b++) if (blocks[b]! > maxSide) maxSide = blocks[b]!;
+  // The blocks the mainlobe cuts through: only their samples outside it.
+  for (let i = firstBlock * BLOCK; i < lobe.left; i++) if (power[i]! > maxSide) maxSide = power[i]!;
+  for (let i = lobe.right + 1; i < Math.min((lastBlock + 1) * BLOCK, len); i++) if (power[i]! > maxSide) maxSide = power[i]!;
+  return figuresOf(power, opts, peak, lobe, mainE, total, maxSide);
+}
+
+/** The straightforward `measureResponse` (separate passes, no blocks): the reference its tests compare with. */
+export function measureResponseDirect(power: Float64Array, opts: MeasureOptions): ResponseMetrics {
+  checkFiniteNumber("sampleRateHz", opts.sampleRateHz);
+  const peak = argMax(power);
+  const peakPower = power[peak]!;
+  if (!(peakPower > 0)) throw new RangeError("compressed output is zero everywhere: no peak to measure");
+  const lobe = findMainlobe(power, peak);
+  const mainE = lobeEnergy(power, lobe);
+  let total = opts.totalEnergy;
+  let maxSide = 0;
+  if (total === undefined) {
+    total = mainE;
+    for (let i = 0; i < lobe.left; i++) total += power[i]!;
+    for (let i = lobe.right + 1; i < power.length; i++) total += power[i]!;
+  }
+  for (let i = 0; i < lobe.left; i++) if (power[i]! > maxSide) maxSide = power[i]!;
+  for (let i = lobe.right + 1; i < power.length; i++) if (power[i]! > maxSide) maxSide = power[i]!;
+  return figuresOf(power, opts, peak, lobe, mainE, total, maxSide);
 }
 
 /** Σ|s|². */
@@ -173,12 +226,34 @@ export function coefficientSqnrDb(float: ComplexSignal, fixed: ComplexSignal): n
   return db10(energy(float) / err);
 }
 
+/** Buffers `measureInterpolated` may reuse: the ×U power grid and the interpolation scratch. */
+export interface MeasureWorkspace {
+  power?: Float64Array;
+  interpolation?: InterpolationWorkspace;
+}
+
+/**
+ * A product spectrum interpolated ×U and measured on the whole grid. `complex: false` skips the
+ * complex ×U output (only |y|² is kept): half the memory of `measureSpectrum`.
+ */
+export function measureInterpolated(
+  spectrum: Float64Array,
+  opts: MeasureOptions,
+  work?: { complex?: boolean; workspace?: MeasureWorkspace },
+): { metrics: ResponseMetrics; y: Float64Array | null; power: Float64Array } {
+  const points = (spectrum.length / 2) * opts.interpolation;
+  const given = work?.workspace?.power;
+  const power = given && given.length === points ? given : new Float64Array(points);
+  const y = work?.complex === false ? null : new Float64Array(2 * points);
+  interpolateInto(spectrum, opts.interpolation, y ? { y, power } : { power }, work?.workspace?.interpolation);
+  return { metrics: measureResponse(power, opts), y, power };
+}
+
 /** A product spectrum interpolated ×U and measured: the full (reference) computation. */
 export function measureSpectrum(
   spectrum: Float64Array,
   opts: MeasureOptions,
 ): { metrics: ResponseMetrics; y: Float64Array; power: Float64Array } {
-  const y = interpolateSpectrum(spectrum, opts.interpolation);
-  const power = powerOf(y);
-  return { metrics: measureResponse(power, opts), y, power };
+  const r = measureInterpolated(spectrum, opts, { complex: true });
+  return { metrics: r.metrics, y: r.y!, power: r.power };
 }

@@ -16,7 +16,7 @@
  */
 import { fftInterleaved } from "./fft";
 import { interpolatedEnergy } from "./compression";
-import { findMainlobe, halfPowerCrossing, measureSpectrum, SPEED_OF_LIGHT, type ResponseMetrics } from "./metrics";
+import { findMainlobe, halfPowerCrossing, measureInterpolated, SPEED_OF_LIGHT, type MeasureWorkspace, type ResponseMetrics } from "./metrics";
 import { besselI0 } from "./windows";
 
 /** Half-length of the local interpolation kernel of Δ, in coarse samples. */
@@ -55,6 +55,8 @@ export interface SweepReference {
   sampleRateHz: number;
   /** Fine index where the target's peak belongs: U·(N−1). */
   expectedIndex: number;
+  /** Buffers the full recomputations may overwrite (e.g. the fixed output's, once it has been used). */
+  workspace?: MeasureWorkspace;
 }
 
 /** Precomputed per reference: kernels, the coarse float output and the float PSL candidates. */
@@ -197,11 +199,8 @@ export function refinedResponse(ctx: SweepContext, spectrum: Float64Array): Resp
 
 /** The full computation for one product spectrum (the reference the refinement is checked against). */
 export function fullResponse(ctx: SweepReference, spectrum: Float64Array): ResponseMetrics {
-  return measureSpectrum(spectrum, {
-    interpolation: ctx.interpolation,
-    sampleRateHz: ctx.sampleRateHz,
-    expectedIndex: ctx.expectedIndex,
-  }).metrics;
+  const opts = { interpolation: ctx.interpolation, sampleRateHz: ctx.sampleRateHz, expectedIndex: ctx.expectedIndex };
+  return measureInterpolated(spectrum, opts, { complex: false, ...(ctx.workspace ? { workspace: ctx.workspace } : {}) }).metrics;
 }
 
 /** One row of a sweep. */
