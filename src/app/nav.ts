@@ -16,6 +16,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { to: "/", label: "Home", roles: [], end: true },
   { to: "/projects", label: "Projects", roles: [] },
   { to: "/reviews", label: "Reviews", roles: ["reviewer"] },
+  { to: "/releases", label: "Releases", roles: [] },
   { to: "/templates", label: "Templates", roles: ["admin", "author"] },
   { to: "/account", label: "Account", roles: [] },
   { to: "/admin/users", label: "Users", roles: ["admin"], group: "Admin" },

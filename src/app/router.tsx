@@ -8,6 +8,8 @@ import { ProjectsPage } from "@/features/projects/components/projects-page";
 import { AuditPage } from "@/features/audit/components/audit-page";
 import { MailboxPage } from "@/features/mailbox/components/mailbox-page";
 import { TemplateEditorRoute, TemplatesRoute } from "@/features/templates/components/template-routes";
+import { ReleasePage } from "@/features/releases/components/release-page";
+import { ReleasesPage } from "@/features/releases/components/releases-page";
 import { NotFoundRoute } from "./routes/not-found";
 import { ReviewsRoute } from "./routes/reviews";
 import { AccountRoute, AdminUsersRoute, HomeRoute } from "./routes/pages";
@@ -28,6 +30,8 @@ export const router = createBrowserRouter([
       { path: "revisions/:id", element: <RevisionPage /> },
       { path: "revisions/:id/report", element: <ReportPage /> },
       { path: "reviews", element: <ReviewsRoute /> },
+      { path: "releases", element: <ReleasesPage /> },
+      { path: "releases/:id", element: <ReleasePage /> },
       { path: "templates", element: <TemplatesRoute /> },
       { path: "templates/new", element: <TemplateEditorRoute /> },
       { path: "templates/:id", element: <TemplateEditorRoute /> },

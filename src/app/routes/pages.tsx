@@ -2,6 +2,7 @@ import type { Role } from "@shared/schemas/auth";
 import { AccountPage } from "@/features/account/components/account-page";
 import { UsersPage } from "@/features/admin-users/components/users-page";
 import { HomePage } from "@/features/home/components/home-page";
+import { TokensSection } from "@/features/tokens/components/tokens-section";
 import { ProjectsTable } from "@/features/projects/components/projects-table";
 import { hasAnyRole } from "@/lib/roles";
 import { useSessionUser } from "../shell";
@@ -14,7 +15,7 @@ export function HomeRoute() {
 
 /** `/account`. */
 export function AccountRoute() {
-  return <AccountPage user={useSessionUser()} />;
+  return <AccountPage user={useSessionUser()} tokens={<TokensSection />} />;
 }
 
 const ADMIN: readonly Role[] = ["admin"];

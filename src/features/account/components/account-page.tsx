@@ -1,4 +1,5 @@
 import { zodResolver } from "@hookform/resolvers/zod";
+import type { ReactNode } from "react";
 import { useForm } from "react-hook-form";
 import { ChangePasswordSchema, type ChangePasswordInput, type SessionUser } from "@shared/schemas/auth";
 import { RoleBadges } from "@/components/role-badges";
@@ -58,8 +59,8 @@ function ChangePasswordForm() {
   );
 }
 
-/** /account: who I am and a change-password form. */
-export function AccountPage({ user }: { user: SessionUser }) {
+/** /account: who I am, a change-password form, and my API tokens (composed in by the route). */
+export function AccountPage({ user, tokens }: { user: SessionUser; tokens?: ReactNode }) {
   return (
     <>
       <PageHeader title="Account" subtitle="Your sign-in details" />
@@ -80,6 +81,7 @@ export function AccountPage({ user }: { user: SessionUser }) {
       <Section title="Change password">
         <ChangePasswordForm />
       </Section>
+      {tokens}
     </>
   );
 }
