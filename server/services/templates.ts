@@ -139,6 +139,18 @@ function nameIsBuiltin(name: string): boolean {
   return builtinTemplates().some((b) => b.name.toLowerCase() === name.toLowerCase());
 }
 
+type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
+
+/** True when another custom template has this name, ignoring case. */
+async function nameClash(tx: Tx, name: string, exceptId: number | null): Promise<boolean> {
+  const same = sql`lower(${exportTemplates.name}) = lower(${name})`;
+  const [clash] = await tx
+    .select({ id: exportTemplates.id })
+    .from(exportTemplates)
+    .where(exceptId === null ? same : sql`${same} and ${exportTemplates.id} <> ${exceptId}`);
+  return clash !== undefined;
+}
+
 const nameTaken = (name: string) =>
   new HttpError("conflict", `A template named "${name}" already exists`, [
     { path: ["name"], message: "this name is taken" },
@@ -153,6 +165,8 @@ export async function createTemplate(
   if (nameIsBuiltin(input.name)) throw nameTaken(input.name);
   await validateTemplateBody(input.body);
   const id = await db.transaction(async (tx) => {
+    // Names differing only in case would look the same in a bundle's manifest.
+    if (await nameClash(tx, input.name, null)) throw nameTaken(input.name);
     const [row] = await tx
       .insert(exportTemplates)
       .values({ ...input, version: 1, createdById: userId, updatedById: userId })
@@ -213,15 +227,8 @@ export async function updateTemplate(
       extension: input.extension ?? current.extension,
       body: input.body ?? current.body,
     };
-    if (next.name !== current.name) {
-      const [clash] = await tx
-        .select({ id: exportTemplates.id })
-        .from(exportTemplates)
-        .where(
-          sql`lower(${exportTemplates.name}) = lower(${next.name}) and ${exportTemplates.id} <> ${templateId}`,
-        );
-      if (clash) throw nameTaken(next.name);
-    }
+    if (next.name !== current.name && (await nameClash(tx, next.name, templateId)))
+      throw nameTaken(next.name);
     const unchanged =
       next.name === current.name &&
       next.description === current.description &&

@@ -98,6 +98,11 @@ describe("POST and PATCH /api/templates", () => {
       "conflict",
     );
     expectError(
+      await admin.post("/api/templates").send({ name: "STALE CHECK", extension: "txt", body: GOOD }),
+      409,
+      "conflict",
+    );
+    expectError(
       await admin
         .post("/api/templates")
         .send({ name: "CSV with exact decimals", extension: "csv", body: GOOD }),
@@ -108,13 +113,11 @@ describe("POST and PATCH /api/templates", () => {
 
   it("refuses a template that does not render, naming the line and column", async () => {
     const admin = await t.admin();
-    const res = await admin
-      .post("/api/templates")
-      .send({
-        name: "Broken",
-        extension: "txt",
-        body: "header\n{% for tap in taps %}\n  {{ tap.i | nope }}\n{% endfor %}",
-      });
+    const res = await admin.post("/api/templates").send({
+      name: "Broken",
+      extension: "txt",
+      body: "header\n{% for tap in taps %}\n  {{ tap.i | nope }}\n{% endfor %}",
+    });
     const err = expectError(res, 400, "validation_failed");
     expect(err.message).toMatch(/line 3, column 3/);
     expect(err.details).toEqual([expect.objectContaining({ path: ["body"], line: 3, column: 3 })]);
