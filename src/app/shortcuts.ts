@@ -6,6 +6,9 @@ const CHORDS: Record<string, string> = { p: "/projects", h: "/" };
 
 function isTyping(target: EventTarget | null): boolean {
   if (!(target instanceof HTMLElement)) return false;
+  // The code editor (Monaco) takes keys through its own input surface, which is neither an input nor
+  // contentEditable in every Chromium version: anything inside it is typing too.
+  if (target.closest(".monaco-editor")) return true;
   return target.isContentEditable || ["INPUT", "TEXTAREA", "SELECT"].includes(target.tagName);
 }
 
