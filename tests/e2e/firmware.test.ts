@@ -44,6 +44,7 @@ async function release(revisionId: number, version: string, notes: string): Prom
   return rel.release.id;
 }
 
+let firstId: number;
 let latestId: number;
 beforeAll(async () => {
   browser = await launch();
@@ -61,7 +62,7 @@ beforeAll(async () => {
     }),
     "create design",
   )) as { design: { id: number }; revision: { id: number } };
-  await release(created.revision.id, "1.0.0", "First issue for the receiver bench.");
+  firstId = await release(created.revision.id, "1.0.0", "First issue for the receiver bench.");
   const r2 = (await ok(await a.post(`/api/designs/${created.design.id}/revisions`), "new revision")) as { revision: { id: number } };
   await ok(await a.patch(`/api/revisions/${r2.revision.id}`, { data: { content: content(12) } }), "edit r2");
   latestId = await release(r2.revision.id, "1.1.0", "Receive words narrowed to 12 bits\nto fit the DSP slice budget.");
@@ -126,6 +127,21 @@ describe("firmware engineer", () => {
 
     expect(firmware.foreign).toEqual([]);
     expect(firmware.pageErrors).toEqual([]);
+  });
+
+  it("a withdrawn release shows the banner with its reason and stays downloadable", async () => {
+    await ok(await author.page.request.post(`/api/releases/${firstId}/withdraw`, { data: { reason: "Q1.15 receive words overflow the DSP slice." } }), "withdraw");
+    const { page } = firmware;
+    await page.goto(`/releases/${firstId}`);
+    const banner = page.getByRole("complementary", { name: "Withdrawn" });
+    await banner.getByText("Reason: Q1.15 receive words overflow the DSP slice.").waitFor();
+    await page.getByRole("link", { name: "Download bundle" }).waitFor();
+    await page.goto("/releases?status=withdrawn");
+    await page.getByRole("table", { name: "Releases" }).getByRole("link", { name: "1.0.0" }).first().waitFor();
+    await page.goto(`/releases/${firstId}`);
+    await banner.waitFor();
+    await screenshot(page, "firmware-release-withdrawn");
+    await expectAccessible(page, "firmware-release-withdrawn");
   });
 
   it("creates a read token (shown once), sees it listed, and revokes it", async () => {
