@@ -389,8 +389,9 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
   if (spec.sweep) {
     progress(0.7, "sweep");
     const swept = spec.sweep.tables ?? ["rx"];
-    const ctx = prepareSweep({ floatFine: fl.y!, floatMetrics: fl.metrics, size, interpolation: u, sampleRateHz: fs, expectedIndex, workspace: { power: new Float64Array(size * u), ...workspace } });
+    const ctx = prepareSweep({ floatFine: fl.y!, floatPower: fl.power, floatMetrics: fl.metrics, size, interpolation: u, sampleRateHz: fs, expectedIndex, workspace: { power: new Float64Array(size * u), ...workspace } });
     const fixedTxSpec = swept.includes("tx") ? null : sqSpec;
+    let txReport: TableReport | undefined;
     const evaluate = (w: number, full: boolean) => {
       const txSpec = sweepSpec(spec.fixedPoint.tx, w);
       const rxSpec = sweepSpec(spec.fixedPoint.rx, w);
@@ -401,7 +402,8 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
       const prod = multiplySpectra(fixedTxSpec ?? spectrumOf(sw, size), spectrumOf(hw, size));
       const m = full ? fullResponse(ctx, prod) : refinedResponse(ctx, prod);
       const fig = flat(compressionFigures(m, mismatchLossDb(sw, hw), peakLossDb(fl.metrics.peakAmplitude, m.peakAmplitude)));
-      const t = [tableReport("tx", s, qsw, null), tableReport("rx", h, qhw, null)];
+      // An unswept table's report is the same at every W: computed once.
+      const t = [fixedTxSpec ? (txReport ??= tableReport("tx", s, qs, null)) : tableReport("tx", s, qsw, null), tableReport("rx", h, qhw, null)];
       fig.coefficientSqnrDb = worstOf(t.filter((x) => swept.includes(x.role)));
       const pass = checkLimits(spec.limits, fig, worstOf(t)).every((c) => c.pass);
       return { figures: fig, pass };

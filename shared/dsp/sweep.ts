@@ -55,6 +55,8 @@ export interface SweepReference {
   sampleRateHz: number;
   /** Fine index where the target's peak belongs: U·(N−1). */
   expectedIndex: number;
+  /** |floatFine|² when already computed (saves a pass and a buffer). */
+  floatPower?: Float64Array;
   /** Buffers the full recomputations may overwrite (e.g. the fixed output's, once it has been used). */
   workspace?: MeasureWorkspace;
 }
@@ -66,21 +68,39 @@ export interface SweepContext extends SweepReference {
   floatCandidates: number[];
 }
 
-/** Top `count` indices of local maxima of `p` outside [lo, hi]. */
-function topLocalMaxima(p: (i: number) => number, length: number, lo: number, hi: number, count: number): number[] {
-  const best: { i: number; v: number }[] = [];
+/**
+ * Top `count` indices of local maxima of `p` outside [lo, hi] (a full slot list is replaced at its first
+ * smallest entry; the minimum is rescanned only on a replacement, since only a larger value can enter).
+ */
+function topLocalMaxima(p: Float64Array, lo: number, hi: number, count: number): number[] {
+  const bi: number[] = [];
+  const bv: number[] = [];
+  let minV = Infinity;
+  const length = p.length;
   for (let i = 1; i + 1 < length; i++) {
     if (i >= lo && i <= hi) continue;
-    const v = p(i);
-    if (v < p(i - 1) || v < p(i + 1) || v === 0) continue;
-    if (best.length < count) best.push({ i, v });
-    else {
-      let m = 0;
-      for (let j = 1; j < best.length; j++) if (best[j]!.v < best[m]!.v) m = j;
-      if (v > best[m]!.v) best[m] = { i, v };
+    const v = p[i]!;
+    if (v < p[i - 1]! || v < p[i + 1]! || v === 0) continue;
+    if (bi.length < count) {
+      bi.push(i);
+      bv.push(v);
+      if (bi.length === count) minV = Math.min(...bv);
+      continue;
     }
+    if (!(v > minV)) continue;
+    bi[bv.indexOf(minV)] = i;
+    bv[bv.indexOf(minV)] = v;
+    minV = Math.min(...bv);
   }
-  return best.map((b) => b.i);
+  return bi;
+}
+
+/** |z|² of interleaved data (into `out` when given). */
+function powerOfInterleaved(z: Float64Array, out?: Float64Array): Float64Array {
+  const n = z.length / 2;
+  const p = out ?? new Float64Array(n);
+  for (let i = 0; i < n; i++) p[i] = z[2 * i]! * z[2 * i]! + z[2 * i + 1]! * z[2 * i + 1]!;
+  return p;
 }
 
 /** Build the reusable context once per analysis. */
@@ -92,12 +112,11 @@ export function prepareSweep(ref: SweepReference): SweepContext {
     floatCoarse[2 * n] = ref.floatFine[2 * n * u]!;
     floatCoarse[2 * n + 1] = ref.floatFine[2 * n * u + 1]!;
   }
-  const f = ref.floatFine;
-  const pf = (i: number) => f[2 * i]! * f[2 * i]! + f[2 * i + 1]! * f[2 * i + 1]!;
   const peak = ref.floatMetrics.peakPositionSamples * u;
   const lo = peak + ref.floatMetrics.mainlobeSamples.left * u;
   const hi = peak + ref.floatMetrics.mainlobeSamples.right * u;
-  const floatCandidates = topLocalMaxima(pf, m * u, lo, hi, PSL_CANDIDATES).map((i) => Math.round(i / u));
+  const pf = ref.floatPower ?? powerOfInterleaved(ref.floatFine);
+  const floatCandidates = topLocalMaxima(pf, lo, hi, PSL_CANDIDATES).map((i) => Math.round(i / u));
   return { ...ref, kernels: interpolationKernels(u), floatCoarse, floatCandidates };
 }
 
@@ -139,9 +158,9 @@ export function refinedResponse(ctx: SweepContext, spectrum: Float64Array): Resp
     const im = ff[2 * jj + 1]! + di;
     return re * re + im * im;
   };
-  const pc = (n: number) => coarse[2 * n]! * coarse[2 * n]! + coarse[2 * n + 1]! * coarse[2 * n + 1]!;
+  const pc = powerOfInterleaved(coarse);
   let cPeak = 0;
-  for (let n = 1; n < m; n++) if (pc(n) > pc(cPeak)) cPeak = n;
+  for (let n = 1; n < m; n++) if (pc[n]! > pc[cPeak]!) cPeak = n;
   // Mainlobe on a fine window around the coarse peak, widened until both first minima lie inside it.
   let half = Math.max(4, Math.ceil(Math.max(-ctx.floatMetrics.mainlobeSamples.left, ctx.floatMetrics.mainlobeSamples.right)) + 2);
   for (;;) {
@@ -167,9 +186,9 @@ export function refinedResponse(ctx: SweepContext, spectrum: Float64Array): Resp
     for (let n = 0; n < m; n++) {
       const j = n * u;
       if (j >= lo && j <= hi) continue;
-      if (pc(n) > maxSide) maxSide = pc(n);
+      if (pc[n]! > maxSide) maxSide = pc[n]!;
     }
-    const coarseCandidates = topLocalMaxima(pc, m, Math.floor(lo / u), Math.ceil(hi / u), PSL_CANDIDATES);
+    const coarseCandidates = topLocalMaxima(pc, Math.floor(lo / u), Math.ceil(hi / u), PSL_CANDIDATES);
     const seen = new Set<number>();
     for (const n of [...coarseCandidates, ...ctx.floatCandidates]) {
       for (let j = (n - 1) * u + 1; j < (n + 1) * u; j++) {
