@@ -4,6 +4,7 @@ import { designKeys, revisionKeys } from "@/features/designs/api/keys";
 import { homeKeys } from "@/features/home/api/get-home";
 import { designReleaseKeys, reviewKeys } from "@/features/reviews/api/keys";
 import { api } from "@/lib/api-client";
+import { releaseKeys } from "./keys";
 
 /** POST /api/revisions/:id/release: an approved revision becomes version X.Y.Z; its bundle is built once. */
 export function useCreateRelease(revisionId: number) {
@@ -22,7 +23,7 @@ export function useCreateRelease(revisionId: number) {
         revisionKeys.detail(revisionId),
         designKeys.all,
         homeKeys.all,
-        ["releases"],
+        releaseKeys.all,
       ])
         void qc.invalidateQueries({ queryKey: key });
     },

@@ -3,6 +3,7 @@ import { ReleaseResponseSchema, type WithdrawReleaseInput } from "@shared/schema
 import { homeKeys } from "@/features/home/api/get-home";
 import { designReleaseKeys, reviewKeys } from "@/features/reviews/api/keys";
 import { api } from "@/lib/api-client";
+import { releaseKeys } from "./keys";
 
 /** POST /api/releases/:id/withdraw: flags the release with a reason; it stays readable and downloadable. */
 export function useWithdrawRelease(releaseId: number) {
@@ -15,8 +16,7 @@ export function useWithdrawRelease(releaseId: number) {
         schema: ReleaseResponseSchema,
       }).then((r) => r.release),
     onSuccess: () => {
-      // "releases" is the firmware pages' key root (their list and detail).
-      for (const key of [designReleaseKeys.all, reviewKeys.all, homeKeys.all, ["releases"]])
+      for (const key of [designReleaseKeys.all, reviewKeys.all, homeKeys.all, releaseKeys.all])
         void qc.invalidateQueries({ queryKey: key });
     },
   });

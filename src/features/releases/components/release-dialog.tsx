@@ -41,6 +41,9 @@ export function TransmitReleaseCaution() {
 
 type Step = "form" | "confirm";
 
+const detailField = (details: unknown): unknown =>
+  typeof details === "object" && details !== null ? (details as { field?: unknown }).field : undefined;
+
 /** The version chips, custom version, notes, then a confirmation that a release cannot be changed or deleted. */
 export function ReleaseDialog({
   open,
@@ -86,7 +89,11 @@ export function ReleaseDialog({
     versionError = `${highest} is already used by this design (versions are never reused)`;
   const parsed = CreateReleaseSchema.safeParse({ version, notes });
   const server = fieldErrors(create.error);
-  const used = create.error instanceof ApiError && create.error.code === "version_used";
+  // The server names the refused field in the 409's details (`{ reason: "version_used", field: "version" }`).
+  const used =
+    create.error instanceof ApiError &&
+    create.error.status === 409 &&
+    detailField(create.error.details) === "version";
   if (!versionError && (server.version || used)) versionError = server.version ?? create.error?.message;
   const notesError =
     (tried && !parsed.success
