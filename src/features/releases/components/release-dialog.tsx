@@ -1,6 +1,5 @@
 import { useState } from "react";
-import { Link } from "react-router-dom";
-import { compareVersions, CreateReleaseSchema, VersionSchema, type Release } from "@shared/schemas/releases";
+import { compareVersions, CreateReleaseSchema, VersionSchema } from "@shared/schemas/releases";
 import { Button } from "@/components/ui/button";
 import { Dialog, DialogActions } from "@/components/ui/dialog";
 import { Field } from "@/components/ui/field";
@@ -61,7 +60,6 @@ export function ReleaseDialog({
   const [notes, setNotes] = useState("");
   const [tried, setTried] = useState(false);
   const [step, setStep] = useState<Step>("form");
-  const [released, setReleased] = useState<Release | null>(null);
 
   const pick = (v: string) => {
     setVersion(v);
@@ -71,7 +69,6 @@ export function ReleaseDialog({
   const close = () => {
     setStep("form");
     setTried(false);
-    setReleased(null);
     create.reset();
     onClose();
   };
@@ -110,30 +107,21 @@ export function ReleaseDialog({
   // Before the first release all three would be 1.0.0-ish; show distinct values only.
   const distinct = suggestions.filter(([, v], i) => suggestions.findIndex(([, w]) => w === v) === i);
 
-  const title = released
-    ? `Released ${released.version}`
-    : step === "form"
-      ? `Release r${target.revisionNumber}`
-      : `Release ${parsed.data?.version ?? version}?`;
+  const title =
+    step === "form" ? `Release r${target.revisionNumber}` : `Release ${parsed.data?.version ?? version}?`;
   return (
     <Dialog
       open={open}
       onClose={close}
       title={title}
       description={
-        released ? undefined : (
-          <>
-            {target.designName} · content hash{" "}
-            <span className="font-mono">{shortHash(target.contentHash)}</span>
-          </>
-        )
+        <>
+          {target.designName} · content hash{" "}
+          <span className="font-mono">{shortHash(target.contentHash)}</span>
+        </>
       }
       footer={
-        released ? (
-          <Button variant="primary" onClick={close}>
-            Done
-          </Button>
-        ) : step === "form" ? (
+        step === "form" ? (
           <DialogActions onCancel={close} label="Continue…" busy={false} formId="release-form" />
         ) : (
           <>
@@ -144,9 +132,13 @@ export function ReleaseDialog({
               onClick={() => {
                 if (!parsed.success) return;
                 create.mutate(parsed.data, {
+                  // The revision turns `released` and this dialog's button goes away with it: close and say so.
                   onSuccess: (rel) => {
-                    setReleased(rel);
-                    toast(`${rel.version} released`, "pass");
+                    toast(
+                      `${rel.version} released: bundle of ${rel.files.length} files built and stored`,
+                      "pass",
+                    );
+                    close();
                   },
                   // A refused version belongs next to its field.
                   onError: () => setStep("form"),
@@ -159,23 +151,7 @@ export function ReleaseDialog({
         )
       }
     >
-      {released ? (
-        <div className="flex flex-col gap-2 text-sm text-ink-800">
-          <p>
-            {target.designName} {released.version} is released. Its bundle ({released.files.length} files) was
-            built once and is stored with SHA-256{" "}
-            <span className="font-mono">
-              {released.bundleSha256 ? shortHash(released.bundleSha256) : "—"}
-            </span>
-            .
-          </p>
-          <p>
-            <Link to={`/releases/${released.id}`} className="text-signal-800 underline">
-              Open release {released.version}
-            </Link>
-          </p>
-        </div>
-      ) : step === "form" ? (
+      {step === "form" ? (
         <form
           id="release-form"
           noValidate
