@@ -104,7 +104,7 @@ export function ReleaseDialog({
         ["major", next.data.major],
       ] as const)
     : [];
-  // Before the first release all three would be 1.0.0-ish; show distinct values only.
+  // Before the first release the server suggests 1.0.0 three times: show distinct values only.
   const distinct = suggestions.filter(([, v], i) => suggestions.findIndex(([, w]) => w === v) === i);
 
   const title =
@@ -194,7 +194,7 @@ export function ReleaseDialog({
                       : "border-paper-400 bg-white text-ink-800 hover:bg-paper-200",
                   )}
                 >
-                  {v} <span className="font-sans">{kind}</span>
+                  {v} <span className="font-sans">{highest ? kind : "first"}</span>
                 </button>
               ))}
             </div>
