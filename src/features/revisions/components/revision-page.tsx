@@ -2,19 +2,15 @@ import { useState } from "react";
 import { Link, useParams } from "react-router-dom";
 import type { CoefficientTable, RevisionDetail } from "@shared/schemas/designs";
 import { Badge } from "@/components/ui/badge";
-import { Button } from "@/components/ui/button";
 import { CopyButton } from "@/components/ui/copy-button";
-import { Dialog, DialogActions } from "@/components/ui/dialog";
 import { PageHeader, Section } from "@/components/ui/page";
 import { EmptyState, ErrorState, Skeleton, TableSkeleton } from "@/components/ui/states";
-import { useToast } from "@/components/ui/toast";
 import { AnalysisSection } from "@/features/analysis/components/analysis-section";
 import { ReviewSection } from "@/features/reviews/components/review-section";
 import { SubmitForReview } from "@/features/reviews/components/submit-for-review";
 import { ApiError } from "@/lib/api-client";
 import { formatCount, formatDateTime, formatEng } from "@/lib/format";
 import { useRevision } from "../api/get-revision";
-import { useSubmitRevision } from "../api/submit-revision";
 import { describeSource, isFm } from "../lib/describe-source";
 import { REVISION_STATE_VIEW } from "../lib/states";
 import { CoefficientGrid } from "./coefficient-grid";
@@ -99,59 +95,6 @@ function TableBlock({ table, detail }: { table: CoefficientTable; detail: Revisi
         </div>
       </details>
     </article>
-  );
-}
-
-function SubmitAction({ detail, blocked }: { detail: RevisionDetail; blocked: boolean }) {
-  const [open, setOpen] = useState(false);
-  const submit = useSubmitRevision(detail.revision.id);
-  const toast = useToast();
-  const r = `r${detail.revision.number}`;
-  return (
-    <>
-      <Button variant="primary" onClick={() => setOpen(true)} disabled={blocked} title={blocked ? "Save or discard your edits first" : undefined}>
-        Submit for review
-      </Button>
-      <Dialog
-        open={open}
-        onClose={() => {
-          setOpen(false);
-          submit.reset();
-        }}
-        title={`Submit ${r} for review?`}
-        footer={
-          <DialogActions
-            onCancel={() => setOpen(false)}
-            label={`Submit ${r}`}
-            busy={submit.isPending}
-            onConfirm={() =>
-              submit.mutate(undefined, {
-                onSuccess: () => {
-                  setOpen(false);
-                  toast(`${r} is in review`, "pass");
-                },
-              })
-            }
-          />
-        }
-      >
-        <div className="flex flex-col gap-2 text-sm text-ink-800">
-          <p>This cannot be undone:</p>
-          <ul className="list-disc pl-5">
-            <li>
-              The content of {r} (its {detail.tables.length} coefficient table{detail.tables.length === 1 ? "" : "s"}, the fixed-point spec and the acceptance
-              limits) is frozen and its content hash is fixed.
-            </li>
-            <li>Any later change needs a new revision, r{detail.revision.number + 1}, copied from this one.</li>
-          </ul>
-          {submit.isError && (
-            <p role="alert" className="text-fail-700">
-              {submit.error.message}
-            </p>
-          )}
-        </div>
-      </Dialog>
-    </>
   );
 }
 
