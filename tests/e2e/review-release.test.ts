@@ -258,6 +258,32 @@ describe("review and release", () => {
     expect(api.releases.map((r) => [r.version, r.revisionId, r.withdrawn])).toEqual([["1.0.0", r2, null]]);
     expect(api.releases[0]?.bundleSha256).toMatch(/^[0-9a-f]{64}$/);
 
+    // The author's home lists the release; withdrawing it needs a reason and keeps it listed, flagged.
+    await a.goto("/");
+    await a
+      .getByRole("table", { name: "Last releases" })
+      .getByRole("row")
+      .filter({ hasText: name })
+      .getByText("1.0.0")
+      .waitFor();
+    await screenshot(a, "review-13-home-author");
+    await expectAccessible(a, "review-13-home-author");
+    await a.goto(`/designs/${designId}`);
+    await releases.getByRole("button", { name: "Withdraw…" }).click();
+    const withdraw = a.getByRole("dialog", { name: "Withdraw 1.0.0?" });
+    await withdraw.getByText("stays visible and downloadable", { exact: false }).waitFor();
+    await withdraw.getByRole("button", { name: "Withdraw 1.0.0" }).click();
+    await withdraw.getByText("give a reason").waitFor();
+    await withdraw
+      .getByLabel("Reason (required)")
+      .fill("Superseded: rx word length to be widened for the trial.");
+    await screenshot(a, "review-14-withdraw-dialog");
+    await expectAccessible(a, "review-14-withdraw-dialog");
+    await withdraw.getByRole("button", { name: "Withdraw 1.0.0" }).click();
+    await releases.getByText("withdrawn").waitFor();
+    await releases.getByText("Superseded: rx word length to be widened for the trial.").waitFor();
+    await releases.getByRole("link", { name: "1.0.0" }).waitFor();
+
     for (const p of [author, reviewer]) {
       expect(p.foreign).toEqual([]);
       expect(p.pageErrors).toEqual([]);
