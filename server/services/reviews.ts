@@ -384,6 +384,8 @@ export async function myRevisionsIn(db: Db, viewer: Viewer, state: RevisionState
         eq(revisions.state, state),
         state === "draft" ? eq(revisions.createdById, viewer.id) : eq(revisions.submittedById, viewer.id),
         inArray(designs.projectId, db.select({ id: projectMembers.projectId }).from(projectMembers).where(eq(projectMembers.userId, viewer.id))),
+        // A revision a newer one has replaced no longer waits for anything.
+        sql`not exists (select 1 from ${revisions} as newer where newer.design_id = ${revisions.designId} and newer.number > ${revisions.number})`,
       ),
     )
     .orderBy(desc(revisions.createdAt))

@@ -94,8 +94,14 @@ describe("design and revision pages", () => {
     await screenshot(page, "revision-page-draft");
     await expectAccessible(page, "revision-page-draft");
 
-    // Submit through the confirm dialog, which says what cannot be undone.
-    await page.getByRole("button", { name: "Submit for review" }).click();
+    // Submitting needs a finished analysis of this content (issue 6): run it, then submit through the
+    // confirm dialog, which says what cannot be undone.
+    const analysis = page.getByRole("region", { name: "Analysis" });
+    await analysis.getByRole("button", { name: "Run analysis" }).click();
+    await analysis.getByRole("link", { name: "Open the report" }).waitFor({ timeout: 90_000 });
+    const submitButton = page.getByRole("button", { name: "Submit for review" });
+    await expect.poll(() => submitButton.isEnabled()).toBe(true);
+    await submitButton.click();
     const dialog = page.getByRole("dialog");
     await dialog.getByText("This cannot be undone").waitFor();
     await dialog.getByText(/needs a new revision, r2/).waitFor();

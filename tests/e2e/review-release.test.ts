@@ -59,8 +59,13 @@ async function analyse(page: Page): Promise<void> {
   const run = section.getByRole("button", { name: "Run analysis" });
   const report = section.getByRole("link", { name: "Open the report" });
   // Wait until the status is known: r2 copies r1's content, whose report may already exist (same hash).
-  await report.or(section.getByText("Not analysed yet")).first().waitFor();
-  if ((await report.count()) === 0) await run.click();
+  // Either a report exists (same content analysed before), or the button is usable; queued/running waits here.
+  await expect
+    .poll(async () => (await report.count()) > 0 || (await run.isEnabled().catch(() => false)), { timeout: 90_000 })
+    .toBe(true);
+  // While the page's plots are still drawing the section can move under the pointer; the button is known
+  // to be enabled here, so fall back to dispatching the click when Playwright never sees it stable.
+  if ((await report.count()) === 0) await run.click({ timeout: 15_000 }).catch(() => run.dispatchEvent("click"));
   await section.getByRole("link", { name: "Open the report" }).waitFor({ timeout: 90_000 });
 }
 

@@ -15,7 +15,9 @@ describe("sign-in and the home page per role", () => {
   it("admin sees all projects, the user count, active sessions, database health and the Admin entry", async () => {
     const { page, foreign, pageErrors, context } = await openPage(browser);
     await signIn(page, DEMO.admin.username, DEMO.admin.password, DEMO.admin.displayName);
-    await expect.poll(() => page.getByRole("heading", { level: 1 }).textContent()).toBe("Welcome, Noor Vance");
+    await expect
+      .poll(() => page.getByRole("heading", { level: 1 }).textContent())
+      .toBe("Welcome, Noor Vance");
     const summary = page.getByRole("definition").first();
     await summary.waitFor();
     expect(await page.getByText("Active sessions").count()).toBe(1);
@@ -23,9 +25,21 @@ describe("sign-in and the home page per role", () => {
     await page.getByRole("region", { name: "Server" }).waitFor();
     const table = page.getByRole("table", { name: "My projects" });
     // Seeded: both projects visible to the admin.
-    expect(await table.getByRole("link").allTextContents()).toEqual(["Coastwatch-S surveillance radar", "Harbour lidar trials"]);
+    expect(await table.getByRole("link").allTextContents()).toEqual([
+      "Coastwatch-S surveillance radar",
+      "Harbour lidar trials",
+    ]);
     const nav = page.getByRole("navigation", { name: "Main" });
-    expect(await nav.getByRole("link").allTextContents()).toEqual(["Home", "Projects", "Account", "Users"]);
+    expect(await nav.getByRole("link").allTextContents()).toEqual([
+      "Home",
+      "Projects",
+      "Releases",
+      "Templates",
+      "Account",
+      "Users",
+      "Audit trail",
+      "Mailbox",
+    ]);
     expect(foreign).toEqual([]);
     expect(pageErrors).toEqual([]);
     await context.close();
@@ -36,11 +50,19 @@ describe("sign-in and the home page per role", () => {
     await signIn(page, DEMO.author.username, DEMO.author.password, DEMO.author.displayName);
     await page.getByRole("table", { name: "My projects" }).waitFor();
     expect(await page.getByRole("table", { name: "My projects" }).getByRole("link").count()).toBe(2);
-    expect(await page.getByRole("region", { name: "My roles" }).textContent()).toContain("submit them for review");
+    expect(await page.getByRole("region", { name: "My roles" }).textContent()).toContain(
+      "submit them for review",
+    );
     expect(await page.getByText("Active sessions").count()).toBe(0);
     expect(await page.getByRole("region", { name: "Server" }).count()).toBe(0);
     const nav = page.getByRole("navigation", { name: "Main" });
-    expect(await nav.getByRole("link").allTextContents()).toEqual(["Home", "Projects", "Account"]);
+    expect(await nav.getByRole("link").allTextContents()).toEqual([
+      "Home",
+      "Projects",
+      "Releases",
+      "Templates",
+      "Account",
+    ]);
     expect(foreign).toEqual([]);
     await context.close();
   });
