@@ -3,7 +3,8 @@ import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { CopyButton } from "@/components/ui/copy-button";
 import { PageHeader, Section } from "@/components/ui/page";
-import { EmptyState, ErrorState, Skeleton, TableSkeleton } from "@/components/ui/states";
+import { PageLoading, PageNotFound } from "@/components/ui/page-states";
+import { EmptyState, ErrorState } from "@/components/ui/states";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { DesignReleases } from "@/features/reviews/components/design-releases";
 import { ApiError } from "@/lib/api-client";
@@ -61,25 +62,9 @@ export function DesignPage() {
   const valid = Number.isInteger(designId) && designId > 0;
   const query = useDesign(valid ? designId : -1);
   if (!valid || (query.error instanceof ApiError && query.error.status === 404)) {
-    return (
-      <>
-        <PageHeader title="Design not found" />
-        <EmptyState title="This design does not exist or you are not a member of its project">
-          <Link to="/projects" className="text-signal-800 underline">
-            Back to your projects
-          </Link>
-        </EmptyState>
-      </>
-    );
+    return <PageNotFound title="Design not found" message="This design does not exist or you are not a member of its project" />;
   }
-  if (query.isPending)
-    return (
-      <div role="status" aria-label="Loading design">
-        <Skeleton className="mb-2 h-6 w-72" />
-        <Skeleton className="mb-6 h-4 w-96" />
-        <TableSkeleton rows={3} />
-      </div>
-    );
+  if (query.isPending) return <PageLoading label="Loading design" />;
   if (query.isError) return <ErrorState error={query.error} onRetry={() => void query.refetch()} />;
   const { design, project, revisions, canEdit } = query.data;
   const newestFirst = [...revisions].sort((a, b) => b.number - a.number);

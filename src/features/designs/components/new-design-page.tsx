@@ -7,6 +7,7 @@ import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
 import { Input } from "@/components/ui/input";
 import { PageHeader } from "@/components/ui/page";
+import { PageNotFound } from "@/components/ui/page-states";
 import { EmptyState } from "@/components/ui/states";
 import { useMe } from "@/features/auth/api/get-me";
 import { projectQueryOptions } from "@/features/projects/api/get-project";
@@ -167,16 +168,7 @@ export function NewDesignPage() {
   const isAuthor = me.data?.roles.includes("author") ?? false;
   const project = useQuery({ ...projectQueryOptions(projectId), enabled: valid });
   if (project.error instanceof ApiError && project.error.status === 404)
-    return (
-      <>
-        <PageHeader title="Project not found" />
-        <EmptyState title="This project does not exist or you are not a member">
-          <Link to="/projects" className="text-signal-800 underline">
-            Back to your projects
-          </Link>
-        </EmptyState>
-      </>
-    );
+    return <PageNotFound title="Project not found" message="This project does not exist or you are not a member" />;
   return (
     <>
       <nav aria-label="Breadcrumb" className="mb-1 text-xs text-ink-600">

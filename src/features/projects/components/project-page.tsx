@@ -1,7 +1,8 @@
 import { Link, useParams } from "react-router-dom";
 import { RoleBadges } from "@/components/role-badges";
 import { PageHeader, Section } from "@/components/ui/page";
-import { EmptyState, ErrorState, Skeleton, TableSkeleton } from "@/components/ui/states";
+import { PageLoading, PageNotFound } from "@/components/ui/page-states";
+import { EmptyState, ErrorState } from "@/components/ui/states";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { DesignsTable, NewDesignLink } from "@/features/designs/components/designs-table";
 import { useMe } from "@/features/auth/api/get-me";
@@ -18,26 +19,9 @@ export function ProjectPage() {
   // Creating needs the author role (the server also requires membership, which seeing the page implies).
   const canCreate = useMe().data?.roles.includes("author") ?? false;
   if (!valid || (query.error instanceof ApiError && query.error.status === 404)) {
-    return (
-      <>
-        <PageHeader title="Project not found" />
-        <EmptyState title="This project does not exist or you are not a member">
-          <Link to="/projects" className="text-signal-800 underline">
-            Back to your projects
-          </Link>
-        </EmptyState>
-      </>
-    );
+    return <PageNotFound title="Project not found" message="This project does not exist or you are not a member" />;
   }
-  if (query.isPending) {
-    return (
-      <div role="status" aria-label="Loading project">
-        <Skeleton className="mb-2 h-6 w-72" />
-        <Skeleton className="mb-6 h-4 w-96" />
-        <TableSkeleton rows={3} />
-      </div>
-    );
-  }
+  if (query.isPending) return <PageLoading label="Loading project" />;
   if (query.isError) return <ErrorState error={query.error} onRetry={() => void query.refetch()} />;
   const { project, members } = query.data;
   return (

@@ -4,7 +4,8 @@ import type { CoefficientTable, RevisionDetail } from "@shared/schemas/designs";
 import { Badge } from "@/components/ui/badge";
 import { CopyButton } from "@/components/ui/copy-button";
 import { PageHeader, Section } from "@/components/ui/page";
-import { EmptyState, ErrorState, Skeleton, TableSkeleton } from "@/components/ui/states";
+import { PageLoading, PageNotFound } from "@/components/ui/page-states";
+import { EmptyState, ErrorState } from "@/components/ui/states";
 import { AnalysisSection } from "@/features/analysis/components/analysis-section";
 import { ReviewSection } from "@/features/reviews/components/review-section";
 import { SubmitForReview } from "@/features/reviews/components/submit-for-review";
@@ -185,25 +186,9 @@ export function RevisionPage() {
   const valid = Number.isInteger(revisionId) && revisionId > 0;
   const query = useRevision(valid ? revisionId : -1);
   if (!valid || (query.error instanceof ApiError && query.error.status === 404)) {
-    return (
-      <>
-        <PageHeader title="Revision not found" />
-        <EmptyState title="This revision does not exist or you are not a member of its project">
-          <Link to="/projects" className="text-signal-800 underline">
-            Back to your projects
-          </Link>
-        </EmptyState>
-      </>
-    );
+    return <PageNotFound title="Revision not found" message="This revision does not exist or you are not a member of its project" />;
   }
-  if (query.isPending)
-    return (
-      <div role="status" aria-label="Loading revision">
-        <Skeleton className="mb-2 h-6 w-72" />
-        <Skeleton className="mb-6 h-4 w-96" />
-        <TableSkeleton rows={4} />
-      </div>
-    );
+  if (query.isPending) return <PageLoading label="Loading revision" rows={4} />;
   if (query.isError) return <ErrorState error={query.error} onRetry={() => void query.refetch()} />;
   return <Revision detail={query.data} />;
 }
