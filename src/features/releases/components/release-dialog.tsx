@@ -6,7 +6,7 @@ import { Field } from "@/components/ui/field";
 import { Input } from "@/components/ui/input";
 import { useToast } from "@/components/ui/toast";
 import { shortHash } from "@/features/reviews/lib/figures";
-import { TextArea } from "@/features/reviews/components/text-area";
+import { TextArea } from "@/components/ui/text-area";
 import { ApiError, fieldErrors } from "@/lib/api-client";
 import { cn } from "@/lib/cn";
 import { useCreateRelease } from "../api/create-release";

@@ -4,7 +4,7 @@ import { Button } from "@/components/ui/button";
 import { Dialog, DialogActions } from "@/components/ui/dialog";
 import { Field } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
-import { TextArea } from "@/features/reviews/components/text-area";
+import { TextArea } from "@/components/ui/text-area";
 import { fieldErrors } from "@/lib/api-client";
 import { useWithdrawRelease } from "../api/withdraw-release";
 

@@ -2,10 +2,10 @@ import { useState } from "react";
 import { CommentInputSchema, type ReviewComment } from "@shared/schemas/reviews";
 import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
+import { isSubmitChord, TextArea } from "@/components/ui/text-area";
 import { fieldErrors } from "@/lib/api-client";
 import { formatDateTime } from "@/lib/format";
 import { usePostComment } from "../api/post-comment";
-import { isSubmitChord, TextArea } from "./text-area";
 
 /**
  * The revision's comment thread, oldest first so the newest is last, and the box to add one.

@@ -3,11 +3,11 @@ import { DecisionInputSchema, type ReviewDecision } from "@shared/schemas/review
 import { Button } from "@/components/ui/button";
 import { Dialog, DialogActions } from "@/components/ui/dialog";
 import { Field } from "@/components/ui/field";
+import { isSubmitChord, TextArea } from "@/components/ui/text-area";
 import { useToast } from "@/components/ui/toast";
 import { fieldErrors } from "@/lib/api-client";
 import { useDecide } from "../api/decide";
 import { shortHash } from "../lib/figures";
-import { isSubmitChord, TextArea } from "./text-area";
 
 const WORDS: Record<ReviewDecision, { option: string; verb: string; done: string }> = {
   approved: { option: "Approve", verb: "Approve", done: "approved" },
