@@ -32,6 +32,8 @@ export function useFinishToast(revisionId: number, analysis: AnalysisStatus | nu
       watching.delete(revisionId);
       // null: the content changed under it (a new hash); nothing finished that this page asked about.
       if (a) toast(...finishMessage(a));
+      // The review section shows the report summary of this content: refresh it (key root of features/reviews).
+      void qc.invalidateQueries({ queryKey: ["reviews"] });
     });
   }, [active, qc, revisionId, toast]);
 }
