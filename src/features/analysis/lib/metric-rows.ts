@@ -4,9 +4,9 @@
  */
 import type { AnalysisReport, LimitCheck } from "@shared/dsp/analysis";
 import type { AcceptanceLimits } from "@shared/dsp/types";
+import { LIMIT_WORDS, METRIC_WORDS, type MetricUnit } from "@shared/report-words";
 
-/** How a figure is printed: dB with two decimals, samples/seconds/metres with engineering prefixes, plain ratio. */
-export type MetricUnit = "dB" | "samples" | "s" | "m" | "ratio";
+export type { MetricUnit };
 
 /** One metric of the report as people name it. */
 export interface MetricDef {
@@ -17,37 +17,32 @@ export interface MetricDef {
   limit?: keyof AcceptanceLimits;
 }
 
+/** The on-screen definitions of the figures named, in the order given. */
+function defs(keys: readonly string[]): MetricDef[] {
+  return keys.map((key) => {
+    const w = METRIC_WORDS[key];
+    if (!w) throw new RangeError(`no report words for ${key}`);
+    return { key, label: w.screenLabel ?? w.label, unit: w.unit, ...(w.limit ? { limit: w.limit } : {}) };
+  });
+}
+
 /** Waveform metrics in reading order (docs/analysis.md "Report"). */
-export const WAVEFORM_METRICS: readonly MetricDef[] = [
-  { key: "pslDb", label: "Peak sidelobe level (PSL)", unit: "dB", limit: "pslDbMax" },
-  { key: "islrDb", label: "Integrated sidelobe ratio (ISLR)", unit: "dB", limit: "islrDbMax" },
-  { key: "mismatchLossDb", label: "Mismatch (SNR) loss", unit: "dB", limit: "mismatchLossDbMax" },
-  { key: "peakLossDb", label: "Peak loss, fixed vs float", unit: "dB", limit: "peakLossDbMax" },
-  { key: "width3dbSamples", label: "−3 dB mainlobe width", unit: "samples" },
-  { key: "width3dbSeconds", label: "−3 dB mainlobe width", unit: "s" },
-  { key: "width3dbMetres", label: "−3 dB range resolution (c/2)", unit: "m" },
-  { key: "peakOffsetSamples", label: "Peak offset from the target", unit: "samples" },
-];
+export const WAVEFORM_METRICS: readonly MetricDef[] = defs([
+  "pslDb",
+  "islrDb",
+  "mismatchLossDb",
+  "peakLossDb",
+  "width3dbSamples",
+  "width3dbSeconds",
+  "width3dbMetres",
+  "peakOffsetSamples",
+]);
 
 /** Filter metrics in reading order. */
-export const FILTER_METRICS: readonly MetricDef[] = [
-  { key: "stopbandAttenuationDb", label: "Stopband attenuation", unit: "dB", limit: "stopbandAttenuationDbMin" },
-  { key: "passbandRippleDb", label: "Passband ripple (peak-to-peak)", unit: "dB", limit: "passbandRippleDbMax" },
-  { key: "passbandGainDb", label: "Passband gain", unit: "dB" },
-  { key: "dcGainDb", label: "DC gain", unit: "dB" },
-  { key: "dcGain", label: "DC gain (ratio)", unit: "ratio" },
-];
+export const FILTER_METRICS: readonly MetricDef[] = defs(["stopbandAttenuationDb", "passbandRippleDb", "passbandGainDb", "dcGainDb", "dcGain"]);
 
 /** Names of the limits as a sentence fragment, and whether the figure must stay below (max) or above (min). */
-export const LIMIT_VIEW: Record<keyof AcceptanceLimits, { label: string; bound: "max" | "min" }> = {
-  pslDbMax: { label: "PSL", bound: "max" },
-  islrDbMax: { label: "ISLR", bound: "max" },
-  mismatchLossDbMax: { label: "Mismatch loss", bound: "max" },
-  peakLossDbMax: { label: "Peak loss", bound: "max" },
-  coefficientSqnrDbMin: { label: "Coefficient SQNR", bound: "min" },
-  stopbandAttenuationDbMin: { label: "Stopband attenuation", bound: "min" },
-  passbandRippleDbMax: { label: "Passband ripple", bound: "max" },
-};
+export const LIMIT_VIEW: Readonly<Record<keyof AcceptanceLimits, { label: string; bound: "max" | "min" }>> = LIMIT_WORDS;
 
 /** One row of the dense metrics table. */
 export interface MetricRow {
