@@ -3,7 +3,8 @@
  * its header, and the row updates the worker makes. Same content → same hash → the stored report is reused.
  */
 import { and, asc, eq, inArray, sql } from "drizzle-orm";
-import type { AnalysisReport } from "../../shared/dsp/analysis";
+import { toAnalysisSpec } from "../../shared/analysis-spec";
+import { analyze, type AnalysisReport } from "../../shared/dsp/analysis";
 import type { AnalysisStatus, ReportHeader } from "../../shared/schemas/analyses";
 import type { RevisionContent } from "../../shared/schemas/designs";
 import type { Db } from "../db/client";
@@ -11,6 +12,7 @@ import { analysisReports, coefficientTables, revisions } from "../db/schema";
 import { HttpError } from "../http/errors";
 import { contentHash } from "./content-hash";
 import type { Viewer } from "./projects";
+import { decodeValues } from "./materialize";
 import { getRevision } from "./revisions";
 
 type Row = typeof analysisReports.$inferSelect;
@@ -227,4 +229,21 @@ export async function markFailed(
     .update(analysisReports)
     .set({ state: "failed", error: reason, stage: null, finishedAt: new Date(), softwareVersion })
     .where(and(eq(analysisReports.contentHash, hash), sql`${analysisReports.state} <> 'done'`));
+}
+
+/**
+ * Analyse a revision's current content on this thread and store the report (no queue); returns the hash.
+ * For the demo seed and the API tests, whose revisions are small: the server's routes still use the queue.
+ */
+export async function analyseInProcess(db: Db, revisionId: number, softwareVersion: string): Promise<string> {
+  const input = await loadRevisionForJob(db, revisionId);
+  if (!input) throw new Error(`no revision ${revisionId}`);
+  await db.insert(analysisReports).values({ contentHash: input.hash, revisionId }).onConflictDoNothing();
+  // markRunning refuses a hash that is already done, so a second call stores nothing new.
+  if (await markRunning(db, input.hash)) {
+    const started = performance.now();
+    const spec = toAnalysisSpec(input.content, input.tables.map((t) => ({ role: t.role, ...decodeValues(t.values) })));
+    await markDone(db, input.hash, analyze(spec), softwareVersion, started);
+  }
+  return input.hash;
 }

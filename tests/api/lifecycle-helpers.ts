@@ -3,14 +3,11 @@
 import bcrypt from "bcryptjs";
 import { eq } from "drizzle-orm";
 import { expect } from "vitest";
-import { toAnalysisSpec } from "../../shared/analysis-spec";
-import { analyze } from "../../shared/dsp/analysis";
 import { CreatedDesignSchema } from "../../shared/schemas/designs";
 import { ReleaseResponseSchema } from "../../shared/schemas/releases";
-import { analysisReports, projectMembers, projects, userRoles, users } from "../../server/db/schema";
+import { projectMembers, projects, userRoles, users } from "../../server/db/schema";
 import type { Database } from "../../server/db/client";
-import { loadRevisionForJob, markDone, markRunning } from "../../server/services/analyses";
-import { decodeValues } from "../../server/services/materialize";
+import { analyseInProcess } from "../../server/services/analyses";
 import { signedIn, type Agent, type ApiTestContext } from "./helpers";
 import type { Role } from "../../shared/schemas/auth";
 
@@ -50,16 +47,8 @@ export async function addUser(
 }
 
 /** Store the finished report of a revision's current content, computed here by the DSP core. */
-export async function finishAnalysis(database: Database, revisionId: number): Promise<string> {
-  const db = database.db;
-  const input = await loadRevisionForJob(db, revisionId);
-  if (!input) throw new Error(`no revision ${revisionId}`);
-  await db.insert(analysisReports).values({ contentHash: input.hash, revisionId }).onConflictDoNothing();
-  if (await markRunning(db, input.hash)) {
-    const spec = toAnalysisSpec(input.content, input.tables.map((t) => ({ role: t.role, ...decodeValues(t.values) })));
-    await markDone(db, input.hash, analyze(spec), "test-inline", performance.now());
-  }
-  return input.hash;
+export function finishAnalysis(database: Database, revisionId: number): Promise<string> {
+  return analyseInProcess(database.db, revisionId, "test-inline");
 }
 
 let n = 0;
