@@ -100,9 +100,9 @@ describe("seedDemoLifecycle", () => {
     const rx = reports.map((r) => r.report.tables.find((x) => x.role === "rx")!);
     expect(rx.map((x) => x.fixedPoint.wordLength)).toEqual([16, DEMO_LFM_R2_RX_BITS]);
     // Uniform quantization noise: SQNR rises 20·log10(2) = 6.02 dB per bit (Widrow & Kollár, "Quantization
-    // Noise", 2008, ch. 4), so two bits are 12.04 dB; the statistical model holds to well under 1 dB here.
+    // Noise", 2008; chapter from memory), so two bits are 12.04 dB; measured 11.88 dB for these tables.
     const drop = rx[0]!.coefficientSqnrDb! - rx[1]!.coefficientSqnrDb!;
-    expect(Math.abs(drop - 40 * Math.log10(2))).toBeLessThan(1);
+    expect(Math.abs(drop - 40 * Math.log10(2))).toBeLessThan(0.5);
   });
 
   it("puts the Barker-13 revision in the reviewer's queue", async () => {
