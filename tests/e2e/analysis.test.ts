@@ -109,8 +109,11 @@ describe("analysis", () => {
     await page.goto(`/revisions/${revisionId}`);
     const section = page.getByRole("region", { name: "Analysis" });
     const run = section.getByRole("button", { name: "Run analysis" });
-    // Another run of this suite on the same database may have analysed it already: same content, same report.
-    if (await run.isEnabled()) await run.click();
+    // The demo seed (or another run) may have analysed it already: same content, same report. Wait until the
+    // status is known — the button stays disabled while it loads — then run it only if there is no report.
+    const report = section.getByRole("link", { name: "Open the report" });
+    await expect.poll(async () => (await report.count()) > 0 || (await run.isEnabled()), { timeout: 60_000 }).toBe(true);
+    if ((await report.count()) === 0) await run.click();
     await section.getByRole("link", { name: "Open the report" }).waitFor({ timeout: 90_000 });
     await section.getByRole("link", { name: "Open the report" }).click();
     await page.getByRole("heading", { name: /Report · 4:1 decimation FIR/ }).waitFor();

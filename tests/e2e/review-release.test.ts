@@ -63,9 +63,7 @@ async function analyse(page: Page): Promise<void> {
   await expect
     .poll(async () => (await report.count()) > 0 || (await run.isEnabled().catch(() => false)), { timeout: 90_000 })
     .toBe(true);
-  // While the page's plots are still drawing the section can move under the pointer; the button is known
-  // to be enabled here, so fall back to dispatching the click when Playwright never sees it stable.
-  if ((await report.count()) === 0) await run.click({ timeout: 15_000 }).catch(() => run.dispatchEvent("click"));
+  if ((await report.count()) === 0) await run.click();
   await section.getByRole("link", { name: "Open the report" }).waitFor({ timeout: 90_000 });
 }
 

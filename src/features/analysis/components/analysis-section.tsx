@@ -27,7 +27,7 @@ export function AnalysisSection({ revisionId }: { revisionId: number }) {
   const active = analysis?.state === "queued" || analysis?.state === "running";
   const action =
     canRun && analysis?.state !== "failed" ? (
-      <Button size="sm" onClick={() => run.mutate()} busy={run.isPending} disabled={active || analysis?.state === "done"}>
+      <Button size="sm" onClick={() => run.mutate()} busy={run.isPending} disabled={status.isPending || active || analysis?.state === "done"}>
         Run analysis
       </Button>
     ) : undefined;
