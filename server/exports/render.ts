@@ -31,6 +31,8 @@ export function exportFileName(
   template: Pick<RenderableTemplate, "id" | "extension">,
 ): string {
   const safeId = template.id.replace(/[^A-Za-z0-9_-]+/g, "-");
+  // `x_rx.csv`, not `x_rx.csv.csv`: the template id is only added when the extension does not already say it.
+  if (safeId === template.extension) return `${ctx.table.ident}.${template.extension}`;
   return `${ctx.table.ident}.${safeId}.${template.extension}`;
 }
 
