@@ -7,7 +7,7 @@ import {
   useReactTable,
   type SortingState,
 } from "@tanstack/react-table";
-import { useEffect, useMemo, useState } from "react";
+import { useEffect, useMemo, useRef, useState } from "react";
 import { Link, useNavigationType, useSearchParams } from "react-router-dom";
 import { DESIGN_KINDS, REVISION_STATES, type DesignSummary, type RevisionState } from "@shared/schemas/designs";
 import { Badge } from "@/components/ui/badge";
@@ -161,7 +161,11 @@ export function DesignsTable({ projectId, canCreate }: { projectId: number; canC
   // URL drops keystrokes under fast typing. Back/forward and links (not REPLACE) still set it.
   const [q, setQ] = useState(urlView.q);
   const navigationType = useNavigationType();
+  const lastUrlQ = useRef(urlView.q);
   useEffect(() => {
+    // Only a real URL change (not the mount, where an early keystroke would be wiped) and not our own writes.
+    if (urlView.q === lastUrlQ.current) return;
+    lastUrlQ.current = urlView.q;
     if (navigationType !== "REPLACE") setQ(urlView.q);
   }, [urlView.q, navigationType]);
   const view = { ...urlView, q };

@@ -1,4 +1,4 @@
-import { useEffect, useState } from "react";
+import { useEffect, useRef, useState } from "react";
 import { useNavigationType, useSearchParams } from "react-router-dom";
 import { Input } from "@/components/ui/input";
 import { PageHeader } from "@/components/ui/page";
@@ -15,8 +15,12 @@ export function ProjectsPage() {
   // back from it drops keystrokes when someone types fast.
   const [q, setQ] = useState(urlQ);
   const navigationType = useNavigationType();
+  const lastUrlQ = useRef(urlQ);
   useEffect(() => {
-    // Our own writes are REPLACE navigations; follow the URL only for back/forward and links.
+    // Follow the URL only when it really changed (back/forward, a link) — not on mount, where a keystroke
+    // typed before this effect runs would be wiped — and never for our own REPLACE writes.
+    if (urlQ === lastUrlQ.current) return;
+    lastUrlQ.current = urlQ;
     if (navigationType !== "REPLACE") setQ(urlQ);
   }, [urlQ, navigationType]);
   const needle = q.trim().toLowerCase();
