@@ -1,4 +1,3 @@
-import { useSearchParams } from "react-router-dom";
 import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
 import { Input } from "@/components/ui/input";
@@ -6,6 +5,7 @@ import { PageHeader } from "@/components/ui/page";
 import { EmptyState, ErrorState, TableSkeleton } from "@/components/ui/states";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { formatDateTime } from "@/lib/format";
+import { useUrlParams } from "@/lib/use-url-params";
 import { auditCsvHref, useAuditOptions, useAuditPage } from "../api/get-audit";
 import { readAuditUrl, toApiFilter, writeAuditUrl, type AuditUrlState } from "../lib/filters";
 
@@ -14,7 +14,7 @@ const SELECT =
 
 /** `/admin/audit`: the append-only trail, filtered by project, user, action and days; filters live in the URL. */
 export function AuditPage() {
-  const [params, setParams] = useSearchParams();
+  const [params, writeParams] = useUrlParams();
   const state = readAuditUrl(params);
   const filter = toApiFilter(state);
   const before = /^\d+$/.test(state.before) ? Number(state.before) : undefined;
@@ -22,7 +22,10 @@ export function AuditPage() {
   const options = useAuditOptions();
 
   // Any filter change starts again at the newest row.
-  const set = (patch: Partial<AuditUrlState>) => setParams(writeAuditUrl({ ...state, before: "", ...patch }));
+  const set = (patch: Partial<AuditUrlState>) =>
+    writeParams((current) => writeAuditUrl({ ...readAuditUrl(current), before: "", ...patch }), {
+      replace: false,
+    });
   const filtered = state.projectId || state.userId || state.action || state.from || state.to;
 
   return (
@@ -86,7 +89,7 @@ export function AuditPage() {
             type="button"
             variant="ghost"
             disabled={!filtered}
-            onClick={() => setParams(new URLSearchParams())}
+            onClick={() => writeParams(() => new URLSearchParams(), { replace: false })}
           >
             Clear filters
           </Button>
@@ -145,7 +148,11 @@ export function AuditPage() {
               size="sm"
               disabled={page.data.nextBefore === null}
               onClick={() =>
-                setParams(writeAuditUrl({ ...state, before: String(page.data.nextBefore ?? "") }))
+                writeParams(
+                  (current) =>
+                    writeAuditUrl({ ...readAuditUrl(current), before: String(page.data.nextBefore ?? "") }),
+                  { replace: false },
+                )
               }
             >
               Older

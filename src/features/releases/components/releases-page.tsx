@@ -1,4 +1,4 @@
-import { Link, useSearchParams } from "react-router-dom";
+import { Link } from "react-router-dom";
 import type { Release } from "@shared/schemas/releases";
 import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
@@ -6,6 +6,7 @@ import { PageHeader } from "@/components/ui/page";
 import { EmptyState, ErrorState, TableSkeleton } from "@/components/ui/states";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { formatDateTime, formatEng } from "@/lib/format";
+import { useUrlParams } from "@/lib/use-url-params";
 import { useReleases } from "../api/get-releases";
 import { readReleaseUrl, toReleaseQuery, writeReleaseUrl, type ReleaseUrlState } from "../lib/filters";
 import { ReleaseStatusBadge } from "./release-status";
@@ -56,22 +57,46 @@ function optionsOf(all: readonly Release[], project: string) {
 
 /** `/releases`: every release in my projects, filtered by project, design and status (kept in the URL). */
 export function ReleasesPage() {
-  const [params, setParams] = useSearchParams();
+  const [params, writeParams] = useUrlParams();
   const state = readReleaseUrl(params);
   const list = useReleases(toReleaseQuery(state));
   const all = useReleases({});
   const options = optionsOf(all.data ?? [], state.project);
   // A new project filter clears a design that belongs to another project.
+  // Built from the latest URL, not this render's: two quick changes must not undo each other.
   const set = (patch: Partial<ReleaseUrlState>) =>
-    setParams(writeReleaseUrl({ ...state, ...(patch.project !== undefined ? { design: "" } : {}), ...patch }), { replace: true });
+    writeParams((current) =>
+      writeReleaseUrl({
+        ...readReleaseUrl(current),
+        ...(patch.project !== undefined ? { design: "" } : {}),
+        ...patch,
+      }),
+    );
   const filtered = Boolean(state.project || state.design || state.status);
 
   return (
     <div>
-      <PageHeader title="Releases" subtitle="Released versions in your projects, newest first. Open one for its files, checksums and download." />
-      <form aria-label="Filters" className="mb-4 grid grid-cols-2 gap-3 md:grid-cols-4" onSubmit={(e) => e.preventDefault()}>
-        <FilterSelect label="Project" value={state.project} onChange={(v) => set({ project: v })} options={[{ value: "", label: "Any project" }, ...options.projects]} />
-        <FilterSelect label="Design" value={state.design} onChange={(v) => set({ design: v })} options={[{ value: "", label: "Any design" }, ...options.designs]} />
+      <PageHeader
+        title="Releases"
+        subtitle="Released versions in your projects, newest first. Open one for its files, checksums and download."
+      />
+      <form
+        aria-label="Filters"
+        className="mb-4 grid grid-cols-2 gap-3 md:grid-cols-4"
+        onSubmit={(e) => e.preventDefault()}
+      >
+        <FilterSelect
+          label="Project"
+          value={state.project}
+          onChange={(v) => set({ project: v })}
+          options={[{ value: "", label: "Any project" }, ...options.projects]}
+        />
+        <FilterSelect
+          label="Design"
+          value={state.design}
+          onChange={(v) => set({ design: v })}
+          options={[{ value: "", label: "Any design" }, ...options.designs]}
+        />
         <FilterSelect
           label="Status"
           value={state.status}
@@ -84,7 +109,7 @@ export function ReleasesPage() {
         />
         {filtered && (
           <div className="flex items-end">
-            <Button onClick={() => setParams(new URLSearchParams(), { replace: true })}>Clear filters</Button>
+            <Button onClick={() => writeParams(() => new URLSearchParams())}>Clear filters</Button>
           </div>
         )}
       </form>
@@ -116,7 +141,10 @@ export function ReleasesPage() {
             {list.data.map((r) => (
               <Tr key={r.id}>
                 <Td>
-                  <Link to={`/releases/${r.id}`} className="font-mono font-medium text-signal-800 underline-offset-2 hover:underline">
+                  <Link
+                    to={`/releases/${r.id}`}
+                    className="font-mono font-medium text-signal-800 underline-offset-2 hover:underline"
+                  >
                     {r.version}
                   </Link>
                 </Td>
