@@ -3,13 +3,11 @@
  * same content always gives the same bytes (the content hash depends on it).
  */
 import { createHash } from "node:crypto";
-import type { FirSource, WaveformSource } from "../../shared/schemas/analysis";
+import type { FirSource } from "../../shared/schemas/analysis";
 import type { RevisionContent, TableRole } from "../../shared/schemas/designs";
 import { designFir } from "../../shared/dsp/fir-design";
-import { linearFm } from "../../shared/dsp/lfm";
+import { generateWaveform } from "../../shared/dsp/analysis";
 import { matchedFilter } from "../../shared/dsp/matched-filter";
-import { nonlinearFm } from "../../shared/dsp/nlfm";
-import { phaseCode } from "../../shared/dsp/phase-codes";
 import type { ComplexSignal } from "../../shared/dsp/types";
 
 /** An upload's parsed values, as materialization needs them. */
@@ -107,17 +105,6 @@ function run<T>(path: (string | number)[], fn: () => T): T {
   }
 }
 
-function generatedWaveform(src: Exclude<WaveformSource, { kind: "samples" }>): ComplexSignal {
-  switch (src.kind) {
-    case "lfm":
-      return linearFm(src);
-    case "nlfm":
-      return nonlinearFm(src);
-    case "phase-code":
-      return phaseCode(src.code, { samplesPerChip: src.samplesPerChip });
-  }
-}
-
 function firTaps(src: Extract<FirSource, { kind: "design" }>): ComplexSignal {
   const taps = designFir(src).taps;
   return { re: taps, im: new Float64Array(taps.length) };
@@ -145,7 +132,7 @@ export function materialize(
       signal = { re: u.re, im: u.im };
       tx = table("tx", 0, signal, u.complex, src.sampleRateHz, uploadSource(u));
     } else {
-      signal = run(["content", "tx"], () => generatedWaveform(src));
+      signal = run(["content", "tx"], () => generateWaveform(src));
       tx = table("tx", 0, signal, hasImaginary(signal), src.sampleRateHz, { ...src });
     }
     const h = run(["content", "rx", "window"], () => matchedFilter(signal, content.rx.window));

@@ -107,7 +107,8 @@ const DEFINITIONS = {
   passbandRippleDb: "max − min of |H| in the passbands, dB peak-to-peak",
 };
 
-function waveformOf(src: WaveformSource): ComplexSignal {
+/** The transmit waveform a source describes: one generator switch for the analysis and the stored tables. */
+export function generateWaveform(src: WaveformSource): ComplexSignal {
   switch (src.kind) {
     case "lfm":
       return linearFm(src);
@@ -327,7 +328,7 @@ function compressionFigures(m: ResponseMetrics, mismatch: number, peakLoss?: num
 function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): AnalysisReport {
   const fs = spec.tx.sampleRateHz;
   const u = spec.interpolation;
-  const s = waveformOf(spec.tx);
+  const s = generateWaveform(spec.tx);
   const h = matchedFilter(s, spec.rx.window);
   const n = s.re.length;
   progress(0.05, "quantize");
