@@ -10,6 +10,7 @@ import type { Db } from "../db/client";
 import { projectMembers, projects, users } from "../db/schema";
 import { HttpError, validationFailed } from "../http/errors";
 import { recordAudit } from "./audit";
+import { projectAccess } from "./designs";
 import { missingUserIds, rolesByUser } from "./users";
 
 /** Who is asking: admins see every project, everyone else only their own. */
@@ -58,15 +59,10 @@ export async function listProjects(db: Db, viewer: Viewer): Promise<Project[]> {
 
 /** Is the viewer allowed to see this project? Non-members get the same answer as for a missing project. */
 async function visibleProject(db: Db, viewer: Viewer, id: number): Promise<ProjectRow> {
+  // The membership rule lives in one place (projectAccess: 404 rather than 403, so non-members cannot probe).
+  await projectAccess(db, viewer, id);
   const [row] = await db.select(projectColumns).from(projects).where(eq(projects.id, id));
   if (!row) throw new HttpError("not_found", "No such project");
-  if (isAdmin(viewer)) return row;
-  const [member] = await db
-    .select({ userId: projectMembers.userId })
-    .from(projectMembers)
-    .where(sql`${projectMembers.projectId} = ${id} and ${projectMembers.userId} = ${viewer.id}`);
-  // 404 rather than 403, so non-members cannot probe which projects exist.
-  if (!member) throw new HttpError("not_found", "No such project");
   return row;
 }
 
