@@ -4,7 +4,16 @@
 // Screenshots of the analysis section, the what-if panel and the report page; axe on each.
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO, expectAccessible, launch, openPage, screenshot, signIn, type GuardedPage } from "./browser";
+import {
+  createDemoDesign,
+  DEMO,
+  expectAccessible,
+  launch,
+  openPage,
+  screenshot,
+  signIn,
+  type GuardedPage,
+} from "./browser";
 
 let browser: Browser;
 let author: GuardedPage;
@@ -19,26 +28,27 @@ afterAll(async () => {
 
 /** A Taylor-weighted LFM draft with limits, a sweep and a Doppler value, created as the signed-in author. */
 async function createDesign(p: GuardedPage): Promise<number> {
-  const projects = (await (await p.page.request.get("/api/projects")).json()) as { projects: Array<{ id: number; slug: string }> };
-  const project = projects.projects.find((x) => x.slug === "coastwatch-s");
-  expect(project, "the seed has project coastwatch-s").toBeDefined();
-  const res = await p.page.request.post(`/api/projects/${project!.id}/designs`, {
-    data: {
-      name: `E2E analysed chirp ${Date.now().toString(36)}`,
-      description: "2 MHz / 100 µs LFM with Taylor receive weighting, for the analysis test (fictional programme).",
-      content: {
-        kind: "waveform",
-        tx: { kind: "lfm", bandwidthHz: 2e6, pulseWidthS: 100e-6, sampleRateHz: 2.5e6 },
-        rx: { window: { kind: "taylor", nbar: 5, sidelobeDb: -35 } },
-        fixedPoint: { tx: { wordLength: 14, fractionLength: 13 }, rx: { wordLength: 12, fractionLength: 11 } },
-        limits: { pslDbMax: -30, islrDbMax: -20, mismatchLossDbMax: 1.5, peakLossDbMax: 0.1, coefficientSqnrDbMin: 50 },
-        sweep: { minBits: 6, maxBits: 14 },
-        dopplerHz: 5000,
+  const { revisionId } = await createDemoDesign(p.page, {
+    name: `E2E analysed chirp ${Date.now().toString(36)}`,
+    description:
+      "2 MHz / 100 µs LFM with Taylor receive weighting, for the analysis test (fictional programme).",
+    content: {
+      kind: "waveform",
+      tx: { kind: "lfm", bandwidthHz: 2e6, pulseWidthS: 100e-6, sampleRateHz: 2.5e6 },
+      rx: { window: { kind: "taylor", nbar: 5, sidelobeDb: -35 } },
+      fixedPoint: { tx: { wordLength: 14, fractionLength: 13 }, rx: { wordLength: 12, fractionLength: 11 } },
+      limits: {
+        pslDbMax: -30,
+        islrDbMax: -20,
+        mismatchLossDbMax: 1.5,
+        peakLossDbMax: 0.1,
+        coefficientSqnrDbMin: 50,
       },
+      sweep: { minBits: 6, maxBits: 14 },
+      dopplerHz: 5000,
     },
   });
-  expect(res.status(), await res.text()).toBe(201);
-  return ((await res.json()) as { revision: { id: number } }).revision.id;
+  return revisionId;
 }
 
 describe("analysis", () => {
@@ -71,7 +81,9 @@ describe("analysis", () => {
     await screenshot(page, "what-if-panel");
     await expectAccessible(page, "what-if-panel");
     // Still unsaved: the stored content keeps W = 12.
-    const stored = (await (await page.request.get(`/api/revisions/${revisionId}`)).json()) as { content: { fixedPoint: { rx: { wordLength: number } } } };
+    const stored = (await (await page.request.get(`/api/revisions/${revisionId}`)).json()) as {
+      content: { fixedPoint: { rx: { wordLength: number } } };
+    };
     expect(stored.content.fixedPoint.rx.wordLength).toBe(12);
 
     await section.getByRole("link", { name: "Open the report" }).click();
@@ -85,9 +97,15 @@ describe("analysis", () => {
     await page.getByText(/Recommended word length: W = \d+/).waitFor();
     await page.getByText("white noise", { exact: false }).first().waitFor();
     // Every plot draws: compressed ×2, spectrum, Doppler cut, coefficient error ×2, three sweep plots.
-    await expect.poll(() => page.locator("figure canvas").count(), { timeout: 30_000 }).toBeGreaterThanOrEqual(9);
-    await expect(page.getByRole("link", { name: "Printable report" }).getAttribute("href")).resolves.toBe(`/api/revisions/${revisionId}/report.html`);
-    await expect(page.getByRole("link", { name: "JSON" }).getAttribute("href")).resolves.toBe(`/api/revisions/${revisionId}/report.json`);
+    await expect
+      .poll(() => page.locator("figure canvas").count(), { timeout: 30_000 })
+      .toBeGreaterThanOrEqual(9);
+    await expect(page.getByRole("link", { name: "Printable report" }).getAttribute("href")).resolves.toBe(
+      `/api/revisions/${revisionId}/report.html`,
+    );
+    await expect(page.getByRole("link", { name: "JSON" }).getAttribute("href")).resolves.toBe(
+      `/api/revisions/${revisionId}/report.json`,
+    );
     await screenshot(page, "analysis-report");
     await expectAccessible(page, "analysis-report");
 
@@ -97,7 +115,9 @@ describe("analysis", () => {
 
   it("a seeded filter design: the report draws the FIR response with its stopband mask", async () => {
     const { page } = author;
-    const projects = (await (await page.request.get("/api/projects")).json()) as { projects: Array<{ id: number; slug: string }> };
+    const projects = (await (await page.request.get("/api/projects")).json()) as {
+      projects: Array<{ id: number; slug: string }>;
+    };
     const project = projects.projects.find((x) => x.slug === "coastwatch-s")!;
     const list = (await (await page.request.get(`/api/projects/${project.id}/designs`)).json()) as {
       designs: Array<{ name: string; latestRevision: { id: number } | null }>;
@@ -112,12 +132,17 @@ describe("analysis", () => {
     // The demo seed (or another run) may have analysed it already: same content, same report. Wait until the
     // status is known — the button stays disabled while it loads — then run it only if there is no report.
     const report = section.getByRole("link", { name: "Open the report" });
-    await expect.poll(async () => (await report.count()) > 0 || (await run.isEnabled()), { timeout: 60_000 }).toBe(true);
+    await expect
+      .poll(async () => (await report.count()) > 0 || (await run.isEnabled()), { timeout: 60_000 })
+      .toBe(true);
     if ((await report.count()) === 0) await run.click();
     await section.getByRole("link", { name: "Open the report" }).waitFor({ timeout: 90_000 });
     await section.getByRole("link", { name: "Open the report" }).click();
     await page.getByRole("heading", { name: /Report · 4:1 decimation FIR/ }).waitFor();
-    await page.getByRole("table", { name: "Metrics" }).getByRole("row", { name: /Stopband attenuation/ }).waitFor();
+    await page
+      .getByRole("table", { name: "Metrics" })
+      .getByRole("row", { name: /Stopband attenuation/ })
+      .waitFor();
     await page.getByRole("group", { name: /FIR magnitude response: Float, Fixed, Stopband mask/ }).waitFor();
     await page.getByText("Coefficient error, table fir").waitFor();
     const html = await page.request.get(`/api/revisions/${revisionId}/report.html`);

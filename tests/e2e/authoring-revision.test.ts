@@ -3,7 +3,16 @@
 // the revision read-only with its content hash. Screenshots and an axe check of both pages.
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO, expectAccessible, launch, openPage, screenshot, signIn, type GuardedPage } from "./browser";
+import {
+  createDemoDesign,
+  DEMO,
+  expectAccessible,
+  launch,
+  openPage,
+  screenshot,
+  signIn,
+  type GuardedPage,
+} from "./browser";
 
 let browser: Browser;
 let author: GuardedPage;
@@ -18,26 +27,19 @@ afterAll(async () => {
 
 /** Creates an LFM waveform design in the demo project through the API, as the signed-in author. */
 async function createDesign(p: GuardedPage): Promise<{ designId: number; revisionId: number; name: string }> {
-  const projects = (await (await p.page.request.get("/api/projects")).json()) as { projects: Array<{ id: number; slug: string }> };
-  const project = projects.projects.find((x) => x.slug === "coastwatch-s");
-  expect(project, "the seed has project coastwatch-s").toBeDefined();
   const name = `E2E chirp ${Date.now().toString(36)}`;
-  const res = await p.page.request.post(`/api/projects/${project!.id}/designs`, {
-    data: {
-      name,
-      description: "Short LFM for the revision-page test (fictional programme).",
-      content: {
-        kind: "waveform",
-        tx: { kind: "lfm", bandwidthHz: 5e6, pulseWidthS: 20e-6, sampleRateHz: 6.25e6 },
-        rx: { window: { kind: "taylor", nbar: 5, sidelobeDb: -35 } },
-        fixedPoint: { tx: { wordLength: 16, fractionLength: 15 }, rx: { wordLength: 16, fractionLength: 15 } },
-        limits: { pslDbMax: -30 },
-      },
+  const ids = await createDemoDesign(p.page, {
+    name,
+    description: "Short LFM for the revision-page test (fictional programme).",
+    content: {
+      kind: "waveform",
+      tx: { kind: "lfm", bandwidthHz: 5e6, pulseWidthS: 20e-6, sampleRateHz: 6.25e6 },
+      rx: { window: { kind: "taylor", nbar: 5, sidelobeDb: -35 } },
+      fixedPoint: { tx: { wordLength: 16, fractionLength: 15 }, rx: { wordLength: 16, fractionLength: 15 } },
+      limits: { pslDbMax: -30 },
     },
   });
-  expect(res.status(), await res.text()).toBe(201);
-  const body = (await res.json()) as { design: { id: number }; revision: { id: number } };
-  return { designId: body.design.id, revisionId: body.revision.id, name };
+  return { ...ids, name };
 }
 
 describe("design and revision pages", () => {
@@ -56,12 +58,20 @@ describe("design and revision pages", () => {
     await page.waitForURL(new RegExp(`/revisions/${revisionId}$`));
     // Both tables (tx, rx): time and spectrum plots, plus instantaneous frequency for the chirp = 6 canvases.
     await page.locator("figure canvas").nth(5).waitFor();
-    const sizes = await page.locator("figure canvas").evaluateAll((els) => els.map((c) => [(c as HTMLCanvasElement).width, (c as HTMLCanvasElement).height]));
+    const sizes = await page
+      .locator("figure canvas")
+      .evaluateAll((els) =>
+        els.map((c) => [(c as HTMLCanvasElement).width, (c as HTMLCanvasElement).height]),
+      );
     expect(sizes.length).toBe(6);
     for (const [w, h] of sizes) expect(w! > 0 && h! > 0).toBe(true);
     // 20 µs at 6.25 MHz = 125 samples per table.
     await expect.poll(() => page.getByText("125 rows").count()).toBe(2);
-    await page.getByRole("heading", { name: "Not analysed yet" }).or(page.getByText("Not analysed yet")).first().waitFor();
+    await page
+      .getByRole("heading", { name: "Not analysed yet" })
+      .or(page.getByText("Not analysed yet"))
+      .first()
+      .waitFor();
 
     // The coefficient grid opens with full-precision values.
     await page.getByText("Coefficients (125 rows)").first().click();
@@ -83,7 +93,9 @@ describe("design and revision pages", () => {
     );
     await page.getByRole("button", { name: "Save fixed-point spec" }).click();
     expect((await patched).status()).toBe(200);
-    await expect.poll(async () => page.getByRole("button", { name: "Save fixed-point spec" }).isDisabled()).toBe(true);
+    await expect
+      .poll(async () => page.getByRole("button", { name: "Save fixed-point spec" }).isDisabled())
+      .toBe(true);
     const saved = (await (await page.request.get(`/api/revisions/${revisionId}`)).json()) as {
       content: { fixedPoint: { rx: { wordLength: number; fractionLength: number } } };
     };
@@ -110,7 +122,10 @@ describe("design and revision pages", () => {
     await dialog.waitFor({ state: "hidden" });
 
     await page.getByText("In review", { exact: true }).first().waitFor();
-    await page.getByText(/Content hash/).first().waitFor();
+    await page
+      .getByText(/Content hash/)
+      .first()
+      .waitFor();
     expect(await page.getByLabel("rx word length W (bits)").count()).toBe(0);
     expect(await page.getByRole("button", { name: "Submit for review" }).count()).toBe(0);
     await page.getByRole("table", { name: "Fixed-point spec" }).getByText("Q1.11").waitFor();

@@ -50,7 +50,12 @@ export async function openPage(browser: Browser): Promise<GuardedPage> {
 }
 
 /** Signs in through the form and waits for the shell to show the user's name. */
-export async function signIn(page: Page, username: string, password: string, displayName: string): Promise<void> {
+export async function signIn(
+  page: Page,
+  username: string,
+  password: string,
+  displayName: string,
+): Promise<void> {
   await page.goto("/sign-in");
   await page.getByLabel("User name").fill(username);
   await page.getByLabel("Password").fill(password);
@@ -82,7 +87,12 @@ export async function expectAccessible(page: Page, name: string): Promise<void> 
   const violations = await page.evaluate(async () => {
     const w = window as unknown as { axe: { run: () => Promise<{ violations: AxeViolation[] }> } };
     const result = await w.axe.run();
-    return result.violations.map((v) => ({ id: v.id, impact: v.impact, help: v.help, nodes: v.nodes.map((n) => n.target) }));
+    return result.violations.map((v) => ({
+      id: v.id,
+      impact: v.impact,
+      help: v.help,
+      nodes: v.nodes.map((n) => n.target),
+    }));
   });
   const bad = violations.filter((v) => v.impact === "serious" || v.impact === "critical");
   expect(bad, `${name}: ${JSON.stringify(bad, null, 2)}`).toEqual([]);
@@ -95,3 +105,19 @@ export const DEMO = {
   reviewer: { username: "reviewer", password: "tapwright-reviewer", displayName: "Tomas Quill" },
   firmware: { username: "firmware", password: "tapwright-firmware", displayName: "Priya Lund" },
 } as const;
+
+/** Creates a design in the demo project `coastwatch-s` through the API, as the user signed in on `page`. */
+export async function createDemoDesign(
+  page: Page,
+  design: { name: string; description: string; content: Record<string, unknown> },
+): Promise<{ designId: number; revisionId: number }> {
+  const projects = (await (await page.request.get("/api/projects")).json()) as {
+    projects: Array<{ id: number; slug: string }>;
+  };
+  const project = projects.projects.find((x) => x.slug === "coastwatch-s");
+  expect(project, "the seed has project coastwatch-s").toBeDefined();
+  const res = await page.request.post(`/api/projects/${project!.id}/designs`, { data: design });
+  expect(res.status(), await res.text()).toBe(201);
+  const body = (await res.json()) as { design: { id: number }; revision: { id: number } };
+  return { designId: body.design.id, revisionId: body.revision.id };
+}

@@ -4,7 +4,16 @@
 // A screenshot of each step goes to test-results/screenshots/review-*.png, with axe on each page.
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO, expectAccessible, launch, openPage, screenshot, signIn, type GuardedPage } from "./browser";
+import {
+  createDemoDesign,
+  DEMO,
+  expectAccessible,
+  launch,
+  openPage,
+  screenshot,
+  signIn,
+  type GuardedPage,
+} from "./browser";
 
 let browser: Browser;
 let author: GuardedPage;
@@ -22,35 +31,22 @@ afterAll(async () => {
 
 /** A small LFM waveform draft with loose limits, made for this test so no other test's edits reach it. */
 async function createDesign(p: GuardedPage, name: string): Promise<{ designId: number; revisionId: number }> {
-  const projects = (await (await p.page.request.get("/api/projects")).json()) as {
-    projects: Array<{ id: number; slug: string }>;
-  };
-  const project = projects.projects.find((x) => x.slug === "coastwatch-s");
-  expect(project, "the seed has project coastwatch-s").toBeDefined();
-  const res = await p.page.request.post(`/api/projects/${project!.id}/designs`, {
-    data: {
-      name,
-      description:
-        "1 MHz / 40 µs LFM, Hamming receive weighting: the review-and-release test (fictional programme).",
-      content: {
-        kind: "waveform",
-        tx: { kind: "lfm", bandwidthHz: 1e6, pulseWidthS: 40e-6, sampleRateHz: 1.25e6 },
-        rx: { window: { kind: "hamming" } },
-        fixedPoint: {
-          tx: { wordLength: 12, fractionLength: 11 },
-          rx: { wordLength: 12, fractionLength: 11 },
-        },
-        limits: { pslDbMax: -20, mismatchLossDbMax: 3 },
-        sweep: { minBits: 6, maxBits: 10 },
+  return createDemoDesign(p.page, {
+    name,
+    description:
+      "1 MHz / 40 µs LFM, Hamming receive weighting: the review-and-release test (fictional programme).",
+    content: {
+      kind: "waveform",
+      tx: { kind: "lfm", bandwidthHz: 1e6, pulseWidthS: 40e-6, sampleRateHz: 1.25e6 },
+      rx: { window: { kind: "hamming" } },
+      fixedPoint: {
+        tx: { wordLength: 12, fractionLength: 11 },
+        rx: { wordLength: 12, fractionLength: 11 },
       },
+      limits: { pslDbMax: -20, mismatchLossDbMax: 3 },
+      sweep: { minBits: 6, maxBits: 10 },
     },
   });
-  expect(res.status(), await res.text()).toBe(201);
-  const body = (await res.json()) as { design?: { id: number }; revision: { id: number; designId?: number } };
-  const detail = (await (await p.page.request.get(`/api/revisions/${body.revision.id}`)).json()) as {
-    design: { id: number };
-  };
-  return { designId: detail.design.id, revisionId: body.revision.id };
 }
 
 /** Runs the analysis of the open revision page unless the same content was analysed before; waits for it to finish. */
@@ -61,7 +57,9 @@ async function analyse(page: Page): Promise<void> {
   // Wait until the status is known: r2 copies r1's content, whose report may already exist (same hash).
   // Either a report exists (same content analysed before), or the button is usable; queued/running waits here.
   await expect
-    .poll(async () => (await report.count()) > 0 || (await run.isEnabled().catch(() => false)), { timeout: 90_000 })
+    .poll(async () => (await report.count()) > 0 || (await run.isEnabled().catch(() => false)), {
+      timeout: 90_000,
+    })
     .toBe(true);
   if ((await report.count()) === 0) await run.click();
   await section.getByRole("link", { name: "Open the report" }).waitFor({ timeout: 90_000 });
