@@ -24,7 +24,8 @@ function main(argv: string[]): number {
     return 0;
   } catch (e) {
     if (e instanceof ZodError) {
-      for (const issue of e.issues) process.stderr.write(`invalid spec: ${issue.path.join(".") || "(root)"}: ${issue.message}\n`);
+      for (const issue of e.issues)
+        process.stderr.write(`invalid spec: ${issue.path.join(".") || "(root)"}: ${issue.message}\n`);
       return 2;
     }
     if (e instanceof RangeError || e instanceof TypeError) {

@@ -78,16 +78,36 @@ function golden(taps: number) {
   const input = mk(16_384, 14);
   const coefficients = mk(taps, 16);
   return () =>
-    bitTrueFilter({ input, coefficients, outputShift: 16, rounding: "nearest-even", overflow: "saturate", outputBits: 24, inputBits: 14, coefficientBits: 16 });
+    bitTrueFilter({
+      input,
+      coefficients,
+      outputShift: 16,
+      rounding: "nearest-even",
+      overflow: "saturate",
+      outputBits: 24,
+      inputBits: 14,
+      coefficientBits: 16,
+    });
 }
 
 const rows: [string, Timing][] = [];
-for (const n of [4096, 65_536, 262_144]) rows.push([`complex LFM analysis, ${n.toLocaleString("en")} samples, U = 8`, median(() => analyze(lfm(n, false)))]);
+for (const n of [4096, 65_536, 262_144])
+  rows.push([
+    `complex LFM analysis, ${n.toLocaleString("en")} samples, U = 8`,
+    median(() => analyze(lfm(n, false))),
+  ]);
 const full = median(() => analyze(lfm(65_536, true)));
 rows.push(["analysis + sweep W = 6…24, 65,536 samples", full]);
 const alone = rows[1]![1];
-rows.push(["sweep W = 6…24 alone (difference of the two 65,536-sample rows)", { wall: full.wall - alone.wall, cpu: full.cpu - alone.cpu, mainCpu: full.mainCpu - alone.mainCpu }]);
-for (const taps of [1024, 4096]) rows.push([`golden vectors, ${taps.toLocaleString("en")} complex taps × 16,384 samples`, median(golden(taps))]);
+rows.push([
+  "sweep W = 6…24 alone (difference of the two 65,536-sample rows)",
+  { wall: full.wall - alone.wall, cpu: full.cpu - alone.cpu, mainCpu: full.mainCpu - alone.mainCpu },
+]);
+for (const taps of [1024, 4096])
+  rows.push([
+    `golden vectors, ${taps.toLocaleString("en")} complex taps × 16,384 samples`,
+    median(golden(taps)),
+  ]);
 clearInterval(timer);
 sample();
 
@@ -124,5 +144,9 @@ writeFileSync(docUrl, `${head}\n\nLast run (\`npm run bench\`): ${machine}.\n\n$
 // The API and analysis-queue figures (own PostgreSQL cluster and server); they write their own section above.
 // `npm run bench -- --dsp-only` skips them.
 if (!process.argv.includes("--dsp-only")) {
-  execFileSync(process.execPath, ["--import", "tsx", fileURLToPath(new URL("./bench-api.ts", import.meta.url))], { stdio: "inherit" });
+  execFileSync(
+    process.execPath,
+    ["--import", "tsx", fileURLToPath(new URL("./bench-api.ts", import.meta.url))],
+    { stdio: "inherit" },
+  );
 }

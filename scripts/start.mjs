@@ -5,7 +5,15 @@
 // Node built-ins only: this runs before node_modules exists.
 import { spawn, spawnSync } from "node:child_process";
 import { randomBytes } from "node:crypto";
-import { chmodSync, existsSync, mkdirSync, readFileSync, readdirSync, statSync, writeFileSync } from "node:fs";
+import {
+  chmodSync,
+  existsSync,
+  mkdirSync,
+  readFileSync,
+  readdirSync,
+  statSync,
+  writeFileSync,
+} from "node:fs";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 
@@ -67,14 +75,19 @@ if (!databaseUrl) {
     stdio: ["ignore", "pipe", "inherit"],
   });
   databaseUrl = /DATABASE_URL=(\S+)/.exec(r.stdout ?? "")?.[1];
-  if (r.status !== 0 || !databaseUrl) fail("PostgreSQL did not start (see the message above), or set DATABASE_URL");
+  if (r.status !== 0 || !databaseUrl)
+    fail("PostgreSQL did not start (see the message above), or set DATABASE_URL");
   ownCluster = true;
 }
 
 function stopCluster() {
   if (!ownCluster) return;
   ownCluster = false;
-  spawnSync("bash", [path.join(ROOT, "scripts", "pg.sh"), "stop"], { cwd: ROOT, env: pgEnv, stdio: "inherit" });
+  spawnSync("bash", [path.join(ROOT, "scripts", "pg.sh"), "stop"], {
+    cwd: ROOT,
+    env: pgEnv,
+    stdio: "inherit",
+  });
   say("PostgreSQL stopped.");
 }
 
@@ -90,7 +103,10 @@ const sessionSecret = process.env.SESSION_SECRET ?? readFileSync(secretFile, "ut
 // 4. Migrations and the demo data (idempotent).
 const baseEnv = { ...process.env, DATABASE_URL: databaseUrl, SESSION_SECRET: sessionSecret };
 say("applying migrations and seeding the demo...");
-if (run(process.execPath, ["--import", "tsx", "server/db/seed-cli.ts", "--migrate"], { env: baseEnv }).status !== 0) {
+if (
+  run(process.execPath, ["--import", "tsx", "server/db/seed-cli.ts", "--migrate"], { env: baseEnv })
+    .status !== 0
+) {
   stopCluster();
   fail("migration or seeding failed");
 }
@@ -197,7 +213,9 @@ if (DEV) {
   });
   child.on("exit", (code) => {
     if (stopping) return;
-    process.stderr.write(`tapwright: the server stopped (exit code ${code}); see the message above (is port ${port} in use?)\n`);
+    process.stderr.write(
+      `tapwright: the server stopped (exit code ${code}); see the message above (is port ${port} in use?)\n`,
+    );
     finish(code || 1);
   });
   const shownHost = host === "0.0.0.0" ? "127.0.0.1" : host;

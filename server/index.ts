@@ -35,7 +35,12 @@ const jobs = jobsConfig();
 const analysisWorker =
   jobs.ANALYSIS_WORKER === "off"
     ? undefined
-    : await startAnalysisWorker({ database, config: jobs, softwareVersion: config.TAPWRIGHT_VERSION, logger });
+    : await startAnalysisWorker({
+        database,
+        config: jobs,
+        softwareVersion: config.TAPWRIGHT_VERSION,
+        logger,
+      });
 
 const server: Server = app.listen(config.PORT, config.HOST, () => {
   const address = server.address();

@@ -16,7 +16,8 @@ export interface TableValues {
 function values(tables: TableValues[], role: TableRole): { re: number[]; im?: number[] } {
   const t = tables.find((x) => x.role === role);
   if (!t) throw new RangeError(`the revision has no ${role} table`);
-  if (t.re.length !== t.im.length) throw new RangeError(`${role}: re has ${t.re.length} values, im ${t.im.length}`);
+  if (t.re.length !== t.im.length)
+    throw new RangeError(`${role}: re has ${t.re.length} values, im ${t.im.length}`);
   const re = Array.from(t.re);
   const im = Array.from(t.im);
   // A real table is passed without im, as the spec expects for real samples.

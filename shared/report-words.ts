@@ -29,8 +29,16 @@ export const METRIC_WORDS: Readonly<Record<string, MetricWords>> = {
   mismatchLossDb: { label: "Mismatch (SNR) loss", unit: "dB", limit: "mismatchLossDbMax" },
   peakLossDb: { label: "Peak loss, fixed vs float", unit: "dB", limit: "peakLossDbMax" },
   width3dbSamples: { label: "\u22123 dB mainlobe width", unit: "samples" },
-  width3dbSeconds: { label: "\u22123 dB mainlobe width (time)", screenLabel: "\u22123 dB mainlobe width", unit: "s" },
-  width3dbMetres: { label: "\u22123 dB mainlobe width (range)", screenLabel: "\u22123 dB range resolution (c/2)", unit: "m" },
+  width3dbSeconds: {
+    label: "\u22123 dB mainlobe width (time)",
+    screenLabel: "\u22123 dB mainlobe width",
+    unit: "s",
+  },
+  width3dbMetres: {
+    label: "\u22123 dB mainlobe width (range)",
+    screenLabel: "\u22123 dB range resolution (c/2)",
+    unit: "m",
+  },
   peakAmplitude: { label: "Peak |y|", unit: "ratio" },
   peakPositionSamples: { label: "Peak position", unit: "samples" },
   peakOffsetSamples: { label: "Peak offset from the target", unit: "samples" },

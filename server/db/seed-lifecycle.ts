@@ -40,7 +40,10 @@ function rxBits(bits: number) {
   return (content: RevisionContent): RevisionContent => {
     if (content.kind !== "waveform") return content;
     const rx = content.fixedPoint.rx;
-    return { ...content, fixedPoint: { ...content.fixedPoint, rx: { ...rx, wordLength: bits, fractionLength: bits - 1 } } };
+    return {
+      ...content,
+      fixedPoint: { ...content.fixedPoint, rx: { ...rx, wordLength: bits, fractionLength: bits - 1 } },
+    };
   };
 }
 
@@ -51,9 +54,11 @@ export const DEMO_LIFECYCLE_PLAN: readonly PlanStep[] = [
     number: 1,
     goal: {
       to: "released",
-      approval: "PSL and ISLR meet the programme limits with margin; mismatch loss within budget. Approved for the range-gate build.",
+      approval:
+        "PSL and ISLR meet the programme limits with margin; mismatch loss within budget. Approved for the range-gate build.",
       version: "1.0.0",
-      notes: "First issue for the Coastwatch-S receiver build: 16-bit transmit and receive tables, full-scale scaling.",
+      notes:
+        "First issue for the Coastwatch-S receiver build: 16-bit transmit and receive tables, full-scale scaling.",
     },
   },
   {
@@ -62,9 +67,11 @@ export const DEMO_LIFECYCLE_PLAN: readonly PlanStep[] = [
     edit: rxBits(DEMO_LFM_R2_RX_BITS),
     goal: {
       to: "released",
-      approval: "Receive table at 14 bits still meets every limit; the coefficient SQNR drop is expected and within margin.",
+      approval:
+        "Receive table at 14 bits still meets every limit; the coefficient SQNR drop is expected and within margin.",
       version: "1.1.0",
-      notes: "Receive table narrowed from 16 to 14 bits to fit the pulse-compression multipliers; transmit table unchanged.",
+      notes:
+        "Receive table narrowed from 16 to 14 bits to fit the pulse-compression multipliers; transmit table unchanged.",
     },
   },
   {
@@ -111,7 +118,13 @@ async function ensureRevision(db: Db, author: Viewer, designId: number, step: Pl
 }
 
 /** Take one revision as far as its goal, skipping what is done; a state off the demo path is left alone. */
-async function advance(db: Db, cast: { author: Viewer; reviewer: Viewer }, designId: number, step: PlanStep, softwareVersion: string) {
+async function advance(
+  db: Db,
+  cast: { author: Viewer; reviewer: Viewer },
+  designId: number,
+  step: PlanStep,
+  softwareVersion: string,
+) {
   let rev = await ensureRevision(db, cast.author, designId, step);
   if (!rev || !ORDER.includes(rev.state)) return;
   const id = rev.id;
@@ -119,7 +132,8 @@ async function advance(db: Db, cast: { author: Viewer; reviewer: Viewer }, desig
     if (step.edit) {
       const wanted = step.edit(rev.content as RevisionContent);
       // Re-applying the edit is skipped when the draft already has it (a start that stopped half-way).
-      if (JSON.stringify(wanted) !== JSON.stringify(rev.content)) await updateRevision(db, cast.author, id, wanted);
+      if (JSON.stringify(wanted) !== JSON.stringify(rev.content))
+        await updateRevision(db, cast.author, id, wanted);
     }
     await analyseInProcess(db, id, softwareVersion);
     if (step.goal.to === "draft") return;
@@ -128,7 +142,8 @@ async function advance(db: Db, cast: { author: Viewer; reviewer: Viewer }, desig
   const goal = step.goal;
   if (goal.to !== "released") return;
   rev = await revisionOf(db, designId, step.number);
-  if (rev?.state === "in_review") await decide(db, cast.reviewer, id, { decision: "approved", comment: goal.approval });
+  if (rev?.state === "in_review")
+    await decide(db, cast.reviewer, id, { decision: "approved", comment: goal.approval });
   rev = await revisionOf(db, designId, step.number);
   if (rev?.state !== "approved") return;
   const [used] = await db
@@ -143,7 +158,10 @@ async function advance(db: Db, cast: { author: Viewer; reviewer: Viewer }, desig
  * Idempotent; does nothing when the demo project, accounts or designs are missing.
  */
 export async function seedDemoLifecycle(db: Db, softwareVersion = env().TAPWRIGHT_VERSION): Promise<void> {
-  const [project] = await db.select({ id: projects.id }).from(projects).where(eq(projects.slug, "coastwatch-s"));
+  const [project] = await db
+    .select({ id: projects.id })
+    .from(projects)
+    .where(eq(projects.slug, "coastwatch-s"));
   const author = await viewerOf(db, "author");
   const reviewer = await viewerOf(db, "reviewer");
   if (!project || !author || !reviewer) return;

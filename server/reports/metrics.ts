@@ -5,7 +5,9 @@ import { LIMIT_WORDS, METRIC_WORDS } from "../../shared/report-words";
 import { db, plain, si } from "./format";
 
 /** Human label of each report figure (keys of AnalysisReport float/fixed/diff), as printed. */
-export const METRIC_LABELS: Record<string, string> = Object.fromEntries(Object.entries(METRIC_WORDS).map(([k, w]) => [k, w.label]));
+export const METRIC_LABELS: Record<string, string> = Object.fromEntries(
+  Object.entries(METRIC_WORDS).map(([k, w]) => [k, w.label]),
+);
 
 /** Which figure each acceptance limit judges, and in which direction. */
 export const LIMIT_METRIC: Record<string, { metric: string; bound: "max" | "min" }> = Object.fromEntries(

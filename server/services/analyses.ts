@@ -242,7 +242,10 @@ export async function analyseInProcess(db: Db, revisionId: number, softwareVersi
   // markRunning refuses a hash that is already done, so a second call stores nothing new.
   if (await markRunning(db, input.hash)) {
     const started = performance.now();
-    const spec = toAnalysisSpec(input.content, input.tables.map((t) => ({ role: t.role, ...decodeValues(t.values) })));
+    const spec = toAnalysisSpec(
+      input.content,
+      input.tables.map((t) => ({ role: t.role, ...decodeValues(t.values) })),
+    );
     await markDone(db, input.hash, analyze(spec), softwareVersion, started);
   }
   return input.hash;

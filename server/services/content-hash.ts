@@ -17,7 +17,8 @@ export function canonicalJson(value: unknown): string {
     case "boolean":
       return JSON.stringify(value);
     case "object": {
-      if (Array.isArray(value)) return `[${value.map((v) => canonicalJson(v === undefined ? null : v)).join(",")}]`;
+      if (Array.isArray(value))
+        return `[${value.map((v) => canonicalJson(v === undefined ? null : v)).join(",")}]`;
       const entries = Object.entries(value as Record<string, unknown>)
         .filter(([, v]) => v !== undefined)
         .sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0));
@@ -41,7 +42,12 @@ export interface HashedTable {
 export function contentHashInput(content: unknown, tables: HashedTable[]): string {
   const ordered = [...tables]
     .sort((a, b) => a.position - b.position)
-    .map((t) => ({ role: t.role, sampleRateHz: t.sampleRateHz, complex: t.complex, valuesSha256: t.valuesSha256 }));
+    .map((t) => ({
+      role: t.role,
+      sampleRateHz: t.sampleRateHz,
+      complex: t.complex,
+      valuesSha256: t.valuesSha256,
+    }));
   return canonicalJson({ content, tables: ordered });
 }
 

@@ -8,7 +8,15 @@ import type {
 } from "../../shared/schemas/designs";
 import type { z } from "zod";
 import type { Db } from "../db/client";
-import { coefficientTables, designs, projectMembers, projects, releases, revisions, users } from "../db/schema";
+import {
+  coefficientTables,
+  designs,
+  projectMembers,
+  projects,
+  releases,
+  revisions,
+  users,
+} from "../db/schema";
 import { HttpError, validationFailed } from "../http/errors";
 import { MaterializeError, materialize, uploadIdsOf, type MaterializedTable } from "./materialize";
 import type { Viewer } from "./projects";
@@ -85,7 +93,10 @@ function toRevisionSummary(r: RevisionRow): RevisionSummary {
 }
 
 /** Revision summaries matching a condition, newest number first. */
-export async function revisionSummaries(db: Db | Tx, where: SQL | undefined): Promise<(RevisionSummary & { designId: number })[]> {
+export async function revisionSummaries(
+  db: Db | Tx,
+  where: SQL | undefined,
+): Promise<(RevisionSummary & { designId: number })[]> {
   const rows = await db
     .select(revisionColumns)
     .from(revisions)
@@ -159,7 +170,11 @@ export async function designSummaries(db: Db | Tx, where: SQL | undefined): Prom
 }
 
 /** Run the generators (or read the uploads) of a content; bad parameters become a 400 with the content path. */
-export async function tablesFor(db: Db | Tx, projectId: number, content: RevisionContent): Promise<MaterializedTable[]> {
+export async function tablesFor(
+  db: Db | Tx,
+  projectId: number,
+  content: RevisionContent,
+): Promise<MaterializedTable[]> {
   const uploaded = await parsedUploads(db, projectId, uploadIdsOf(content));
   try {
     return materialize(content, (id) => uploaded.get(id));
@@ -190,37 +205,39 @@ export async function createDesign(
 ): Promise<{ design: DesignSummary; revision: RevisionSummary }> {
   await projectAccess(db, viewer, projectId);
   const tables = await tablesFor(db, projectId, input.content);
-  const nameTaken = () => new HttpError("conflict", `A design named "${input.name}" already exists in this project`, [{ path: ["name"], message: "this name is taken in the project" }]);
-  const ids = await db
-    .transaction(async (tx) => {
-      const [design] = await tx
-        .insert(designs)
-        .values({
-          projectId,
-          name: input.name,
-          kind: input.content.kind,
-          description: input.description,
-          ownerId: viewer.id,
-        })
-        .onConflictDoNothing({ target: [designs.projectId, designs.name] })
-        .returning({ id: designs.id });
-      if (!design) throw nameTaken();
-      const [revision] = await tx
-        .insert(revisions)
-        .values({ designId: design.id, number: 1, content: input.content, createdById: viewer.id })
-        .returning({ id: revisions.id });
-      if (!revision) throw new Error("revision insert returned no row");
-      await insertTables(tx, revision.id, tables);
-      await recordAudit(tx, {
-        action: "design.create",
+  const nameTaken = () =>
+    new HttpError("conflict", `A design named "${input.name}" already exists in this project`, [
+      { path: ["name"], message: "this name is taken in the project" },
+    ]);
+  const ids = await db.transaction(async (tx) => {
+    const [design] = await tx
+      .insert(designs)
+      .values({
         projectId,
-        subjectType: "design",
-        subjectId: design.id,
-        summary: `Created ${input.content.kind} design "${input.name}" with draft r1`,
-        details: { name: input.name, kind: input.content.kind, revisionId: revision.id },
-      });
-      return { designId: design.id, revisionId: revision.id };
+        name: input.name,
+        kind: input.content.kind,
+        description: input.description,
+        ownerId: viewer.id,
+      })
+      .onConflictDoNothing({ target: [designs.projectId, designs.name] })
+      .returning({ id: designs.id });
+    if (!design) throw nameTaken();
+    const [revision] = await tx
+      .insert(revisions)
+      .values({ designId: design.id, number: 1, content: input.content, createdById: viewer.id })
+      .returning({ id: revisions.id });
+    if (!revision) throw new Error("revision insert returned no row");
+    await insertTables(tx, revision.id, tables);
+    await recordAudit(tx, {
+      action: "design.create",
+      projectId,
+      subjectType: "design",
+      subjectId: design.id,
+      summary: `Created ${input.content.kind} design "${input.name}" with draft r1`,
+      details: { name: input.name, kind: input.content.kind, revisionId: revision.id },
     });
+    return { designId: design.id, revisionId: revision.id };
+  });
   const [design] = await designSummaries(db, eq(designs.id, ids.designId));
   const [revision] = await revisionSummaries(db, eq(revisions.id, ids.revisionId));
   if (!design || !revision) throw new Error(`design ${ids.designId} vanished after insert`);
@@ -229,7 +246,11 @@ export async function createDesign(
 }
 
 /** A design the viewer may see, with its project; 404 otherwise. */
-export async function visibleDesign(db: Db | Tx, viewer: Viewer, id: number): Promise<{ design: DesignSummary; project: ProjectRef }> {
+export async function visibleDesign(
+  db: Db | Tx,
+  viewer: Viewer,
+  id: number,
+): Promise<{ design: DesignSummary; project: ProjectRef }> {
   const [design] = await designSummaries(db, eq(designs.id, id));
   if (!design) throw new HttpError("not_found", "No such design");
   const project = await projectAccess(db, viewer, design.projectId, "No such design");

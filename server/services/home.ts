@@ -9,16 +9,27 @@ import { listProjects } from "./projects";
 import { countActiveSessions, countUsers } from "./users";
 
 /** The start page data for one user; admins also get user, session and health figures. */
-export async function homeFor(db: Db, user: SessionUser, version: string): Promise<Home & { work: HomeWork }> {
+export async function homeFor(
+  db: Db,
+  user: SessionUser,
+  version: string,
+): Promise<Home & { work: HomeWork }> {
   const projects = await listProjects(db, user);
   const work = await workFor(db, user);
-  if (!user.roles.includes("admin")) return { user, projects, stats: { projectCount: projects.length }, work };
+  if (!user.roles.includes("admin"))
+    return { user, projects, stats: { projectCount: projects.length }, work };
   const [userCount, activeSessions, health] = await Promise.all([
     countUsers(db),
     countActiveSessions(db),
     checkHealth(db, version),
   ]);
-  return { user, projects, stats: { projectCount: projects.length, userCount, activeSessions }, health, work };
+  return {
+    user,
+    projects,
+    stats: { projectCount: projects.length, userCount, activeSessions },
+    health,
+    work,
+  };
 }
 
 /** The review/release part of the home page, per role held (issue 6). */

@@ -9,7 +9,14 @@ import { HttpError } from "../http/errors";
 import type { Viewer } from "./projects";
 
 /** What a user can do to a revision (withdraw acts on the revision's release). */
-export const LIFECYCLE_ACTIONS = ["submit", "approve", "request_changes", "release", "withdraw", "comment"] as const;
+export const LIFECYCLE_ACTIONS = [
+  "submit",
+  "approve",
+  "request_changes",
+  "release",
+  "withdraw",
+  "comment",
+] as const;
 export type LifecycleAction = (typeof LIFECYCLE_ACTIONS)[number];
 
 /** One row of the table. */
@@ -30,8 +37,20 @@ const AFTER_SUBMIT: readonly RevisionState[] = ["in_review", "approved", "change
 
 /** The table itself; changing the life cycle means changing this and nothing else. */
 export const LIFECYCLE: Readonly<Record<LifecycleAction, LifecycleRule>> = {
-  submit: { from: ["draft"], to: "in_review", roles: ["author"], notSubmitter: false, words: "submit it for review" },
-  approve: { from: ["in_review"], to: "approved", roles: ["reviewer"], notSubmitter: true, words: "approve it" },
+  submit: {
+    from: ["draft"],
+    to: "in_review",
+    roles: ["author"],
+    notSubmitter: false,
+    words: "submit it for review",
+  },
+  approve: {
+    from: ["in_review"],
+    to: "approved",
+    roles: ["reviewer"],
+    notSubmitter: true,
+    words: "approve it",
+  },
   request_changes: {
     from: ["in_review"],
     to: "changes_requested",
@@ -39,10 +58,28 @@ export const LIFECYCLE: Readonly<Record<LifecycleAction, LifecycleRule>> = {
     notSubmitter: true,
     words: "request changes",
   },
-  release: { from: ["approved"], to: "released", roles: ["author"], notSubmitter: false, words: "release it" },
+  release: {
+    from: ["approved"],
+    to: "released",
+    roles: ["author"],
+    notSubmitter: false,
+    words: "release it",
+  },
   // The revision stays `released`; the release row gets its withdrawal fields (a flag, not a state).
-  withdraw: { from: ["released"], to: null, roles: ["author", "admin"], notSubmitter: false, words: "withdraw its release" },
-  comment: { from: AFTER_SUBMIT, to: null, roles: ["author", "reviewer", "admin"], notSubmitter: false, words: "comment" },
+  withdraw: {
+    from: ["released"],
+    to: null,
+    roles: ["author", "admin"],
+    notSubmitter: false,
+    words: "withdraw its release",
+  },
+  comment: {
+    from: AFTER_SUBMIT,
+    to: null,
+    roles: ["author", "reviewer", "admin"],
+    notSubmitter: false,
+    words: "comment",
+  },
 };
 
 /** Revision states in words, for messages. */
@@ -62,17 +99,29 @@ export interface LifecycleSubject {
 }
 
 /** Why an action is refused, or null when it is allowed; the order is role (403), state (409), self-review (403). */
-export function refusal(action: LifecycleAction, subject: LifecycleSubject, viewer: Viewer): HttpError | null {
+export function refusal(
+  action: LifecycleAction,
+  subject: LifecycleSubject,
+  viewer: Viewer,
+): HttpError | null {
   const rule = LIFECYCLE[action];
   if (!rule.roles.some((r) => viewer.roles.includes(r)))
-    return new HttpError("forbidden", `Only a user with the ${rule.roles.join(" or ")} role may ${rule.words}`, {
-      action,
-    });
+    return new HttpError(
+      "forbidden",
+      `Only a user with the ${rule.roles.join(" or ")} role may ${rule.words}`,
+      {
+        action,
+      },
+    );
   if (!rule.from.includes(subject.state))
-    return new HttpError("conflict", `r${subject.number} is ${STATE_WORDS[subject.state]}, so you cannot ${rule.words}`, {
-      action,
-      state: subject.state,
-    });
+    return new HttpError(
+      "conflict",
+      `r${subject.number} is ${STATE_WORDS[subject.state]}, so you cannot ${rule.words}`,
+      {
+        action,
+        state: subject.state,
+      },
+    );
   if (rule.notSubmitter && subject.submittedById === viewer.id)
     return new HttpError("forbidden", "You submitted this revision, so someone else must review it", {
       action,

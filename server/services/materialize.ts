@@ -57,7 +57,8 @@ export function encodeValues(s: ComplexSignal): Buffer {
 
 /** The inverse of encodeValues. */
 export function decodeValues(buf: Uint8Array): ComplexSignal {
-  if (buf.byteLength % 16 !== 0) throw new RangeError(`values hold ${buf.byteLength} bytes, not a multiple of 16`);
+  if (buf.byteLength % 16 !== 0)
+    throw new RangeError(`values hold ${buf.byteLength} bytes, not a multiple of 16`);
   const view = new DataView(buf.buffer, buf.byteOffset, buf.byteLength);
   const n = buf.byteLength / 16;
   const re = new Float64Array(n);

@@ -63,7 +63,11 @@ export function specChanges(from: DiffInput, to: DiffInput): SpecChange[] {
  * Largest change of the represented values in LSB of `to`: |code_to − code_from·2^(F_to − F_from)|, i.e.
  * |v_to − v_from|·2^F_to with v = code·2^−F. Exact in float64 while the scaled codes stay below 2^53.
  */
-export function tableChange(role: string, a: QuantizedTable | undefined, b: QuantizedTable | undefined): TableChange {
+export function tableChange(
+  role: string,
+  a: QuantizedTable | undefined,
+  b: QuantizedTable | undefined,
+): TableChange {
   const base = { table: role, lengthFrom: a?.re.length ?? null, lengthTo: b?.re.length ?? null };
   if (!a || !b) return { ...base, changedWords: null, maxChangeLsb: null, atIndex: null };
   const shift = 2 ** (b.spec.fractionLength - a.spec.fractionLength);
@@ -96,7 +100,8 @@ export function metricChanges(from: DiffInput["report"], to: DiffInput["report"]
     for (const k of new Set([...Object.keys(r.float), ...Object.keys(r.fixed)]))
       m.set(k, { float: r.float[k] ?? null, fixed: r.fixed[k] ?? null });
     // The float table is the reference itself: its SQNR is not a figure, only the fixed one is.
-    for (const t of r.tables) m.set(`coefficientSqnrDb.${t.role}`, { float: null, fixed: t.coefficientSqnrDb });
+    for (const t of r.tables)
+      m.set(`coefficientSqnrDb.${t.role}`, { float: null, fixed: t.coefficientSqnrDb });
     return m;
   };
   const a = flat(from);
@@ -105,7 +110,12 @@ export function metricChanges(from: DiffInput["report"], to: DiffInput["report"]
   return [...new Set([...b.keys(), ...a.keys()])].map((key) => {
     const x = a.get(key) ?? none;
     const y = b.get(key) ?? none;
-    return { key, from: x, to: y, deltaFixed: x.fixed !== null && y.fixed !== null ? y.fixed - x.fixed : null };
+    return {
+      key,
+      from: x,
+      to: y,
+      deltaFixed: x.fixed !== null && y.fixed !== null ? y.fixed - x.fixed : null,
+    };
   });
 }
 
@@ -130,9 +140,15 @@ export function compareReleases(from: DiffInput, to: DiffInput): ReleaseDiff {
 
 /** Quantized tables and the finished report of a release's revision, from the stored rows. */
 async function load(db: Db, release: Release): Promise<DiffInput> {
-  const [rev] = await db.select({ content: revisions.content }).from(revisions).where(eq(revisions.id, release.revisionId));
+  const [rev] = await db
+    .select({ content: revisions.content })
+    .from(revisions)
+    .where(eq(revisions.id, release.revisionId));
   if (!rev) throw new HttpError("not_found", "No such release");
-  const specs = RevisionContentSchema.parse(rev.content).fixedPoint as Record<string, FixedPointSpec | undefined>;
+  const specs = RevisionContentSchema.parse(rev.content).fixedPoint as Record<
+    string,
+    FixedPointSpec | undefined
+  >;
   const rows = await db
     .select({ role: coefficientTables.role, values: coefficientTables.values })
     .from(coefficientTables)
@@ -152,10 +168,17 @@ async function load(db: Db, release: Release): Promise<DiffInput> {
 }
 
 /** GET /api/releases/:id/diff?against=:otherId — 404 unless both are visible; 400 across designs. */
-export async function releaseDiff(db: Db, viewer: Viewer, id: number, againstId: number): Promise<ReleaseDiff> {
+export async function releaseDiff(
+  db: Db,
+  viewer: Viewer,
+  id: number,
+  againstId: number,
+): Promise<ReleaseDiff> {
   const to = await getRelease(db, viewer, id);
   const from = await getRelease(db, viewer, againstId);
   if (from.designId !== to.designId)
-    throw new HttpError("bad_request", "Only releases of the same design can be compared", { reason: "different_design" });
+    throw new HttpError("bad_request", "Only releases of the same design can be compared", {
+      reason: "different_design",
+    });
   return compareReleases(await load(db, from), await load(db, to));
 }

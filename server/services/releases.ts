@@ -6,7 +6,13 @@
  */
 import { and, desc, eq, inArray, isNotNull, isNull, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
-import { parseVersion, type NextVersions, type Release, type ReleaseFile, type ReleaseListQuery } from "../../shared/schemas/releases";
+import {
+  parseVersion,
+  type NextVersions,
+  type Release,
+  type ReleaseFile,
+  type ReleaseListQuery,
+} from "../../shared/schemas/releases";
 import { buildReleaseBundle } from "../bundles/build";
 import type { Db } from "../db/client";
 import { designs, projectMembers, projects, releases, reviews, revisions, users } from "../db/schema";
@@ -88,7 +94,11 @@ export async function releaseRows(db: Db | Tx, where: SQL | undefined): Promise<
     files: filesOf(r.manifest),
     withdrawn:
       r.withdrawnAt && r.withdrawnById !== null
-        ? { at: r.withdrawnAt.toISOString(), by: { id: r.withdrawnById, displayName: r.withdrawnByName ?? "" }, reason: r.withdrawReason ?? "" }
+        ? {
+            at: r.withdrawnAt.toISOString(),
+            by: { id: r.withdrawnById, displayName: r.withdrawnByName ?? "" },
+            reason: r.withdrawReason ?? "",
+          }
         : null,
     // A waveform design's release carries its transmit table (DESIGN.md "Cautions").
     transmit: r.designKind === "waveform",
@@ -100,7 +110,10 @@ function myProjects(db: Db | Tx, viewer: Viewer): SQL | undefined {
   if (viewer.roles.includes("admin")) return undefined;
   return inArray(
     projects.id,
-    db.select({ id: projectMembers.projectId }).from(projectMembers).where(eq(projectMembers.userId, viewer.id)),
+    db
+      .select({ id: projectMembers.projectId })
+      .from(projectMembers)
+      .where(eq(projectMembers.userId, viewer.id)),
   );
 }
 
@@ -125,7 +138,11 @@ export async function listReleases(db: Db, viewer: Viewer, q: ReleaseListQuery):
       myProjects(db, viewer),
       q.project !== undefined ? eq(projects.slug, q.project) : undefined,
       q.design !== undefined ? eq(releases.designId, q.design) : undefined,
-      q.status === "withdrawn" ? isNotNull(releases.withdrawnAt) : q.status === "active" ? isNull(releases.withdrawnAt) : undefined,
+      q.status === "withdrawn"
+        ? isNotNull(releases.withdrawnAt)
+        : q.status === "active"
+          ? isNull(releases.withdrawnAt)
+          : undefined,
     ),
   );
 }
@@ -134,7 +151,13 @@ export async function listReleases(db: Db, viewer: Viewer, q: ReleaseListQuery):
  * A release by project slug, design name and version, or "latest" (the newest non-withdrawn by version
  * order); 404 when the viewer is not a member or nothing matches. For the download routes.
  */
-export async function releaseByVersion(db: Db, viewer: Viewer, slug: string, designName: string, version: string): Promise<Release> {
+export async function releaseByVersion(
+  db: Db,
+  viewer: Viewer,
+  slug: string,
+  designName: string,
+  version: string,
+): Promise<Release> {
   const [project] = await db.select({ id: projects.id }).from(projects).where(eq(projects.slug, slug));
   if (!project) throw new HttpError("not_found", "No such release");
   await projectAccess(db, viewer, project.id, "No such release");
@@ -186,13 +209,19 @@ export async function suggestVersions(db: Db, viewer: Viewer, designId: number):
 }
 
 const versionTaken = (version: string) =>
-  new HttpError("conflict", `Version ${version} is already used for this design (a withdrawn release keeps its version): choose another`, {
-    reason: "version_used",
-    field: "version",
-  });
+  new HttpError(
+    "conflict",
+    `Version ${version} is already used for this design (a withdrawn release keeps its version): choose another`,
+    {
+      reason: "version_used",
+      field: "version",
+    },
+  );
 
 const isUniqueViolation = (e: unknown): boolean =>
-  typeof e === "object" && e !== null && ((e as { code?: string }).code === "23505" || isUniqueViolation((e as { cause?: unknown }).cause));
+  typeof e === "object" &&
+  e !== null &&
+  ((e as { code?: string }).code === "23505" || isUniqueViolation((e as { cause?: unknown }).cause));
 
 /** POST /api/revisions/:id/release: the approved content, its bundle and the release row, in one transaction. */
 export async function createRelease(
@@ -217,7 +246,12 @@ export async function createRelease(
         .orderBy(desc(reviews.at), desc(reviews.id))
         .limit(1);
       const report = r.contentHash ? await reportSummary(tx, r.contentHash) : null;
-      if (!approval || approval.contentHash !== r.contentHash || !report || report.reportHash !== approval.reportHash)
+      if (
+        !approval ||
+        approval.contentHash !== r.contentHash ||
+        !report ||
+        report.reportHash !== approval.reportHash
+      )
         throw new HttpError(
           "conflict",
           `r${r.number}'s content or report is not what was approved: submit it for review again`,
@@ -226,7 +260,14 @@ export async function createRelease(
       const [used] = await tx
         .select({ id: releases.id })
         .from(releases)
-        .where(and(eq(releases.designId, r.designId), eq(releases.major, parts.major), eq(releases.minor, parts.minor), eq(releases.patch, parts.patch)));
+        .where(
+          and(
+            eq(releases.designId, r.designId),
+            eq(releases.major, parts.major),
+            eq(releases.minor, parts.minor),
+            eq(releases.patch, parts.patch),
+          ),
+        );
       if (used) throw versionTaken(input.version);
       const releasedAt = new Date();
       const bundle = await buildReleaseBundle(tx, {
@@ -255,16 +296,29 @@ export async function createRelease(
         .returning({ id: releases.id });
       if (!row) throw new Error("release insert returned no row");
       await tx.update(revisions).set({ state: next }).where(eq(revisions.id, r.id));
-      await tx.update(designs).set({ updatedAt: sql`now()` }).where(eq(designs.id, r.designId));
+      await tx
+        .update(designs)
+        .set({ updatedAt: sql`now()` })
+        .where(eq(designs.id, r.designId));
       await recordAudit(tx, {
         action: "release.create",
         projectId: r.project.id,
         subjectType: "release",
         subjectId: row.id,
         summary: `Released r${r.number} of ${r.design.name} as ${input.version}`,
-        details: { designId: r.designId, revisionId: r.id, version: input.version, contentHash: r.contentHash, bundleSha256: bundle.sha256, bundleSize: bundle.size },
+        details: {
+          designId: r.designId,
+          revisionId: r.id,
+          version: input.version,
+          contentHash: r.contentHash,
+          bundleSha256: bundle.sha256,
+          bundleSize: bundle.size,
+        },
       });
-      await notify(tx, "released", { ...mailBase(r, viewer.id), release: { id: row.id, version: input.version, notes: input.notes } });
+      await notify(tx, "released", {
+        ...mailBase(r, viewer.id),
+        release: { id: row.id, version: input.version, notes: input.notes },
+      });
       return row.id;
     });
   } catch (e) {
@@ -275,7 +329,12 @@ export async function createRelease(
 }
 
 /** POST /api/releases/:id/withdraw: flag it with the reason; it stays readable and downloadable. */
-export async function withdrawRelease(db: Db, viewer: Viewer, releaseId: number, reason: string): Promise<Release> {
+export async function withdrawRelease(
+  db: Db,
+  viewer: Viewer,
+  releaseId: number,
+  reason: string,
+): Promise<Release> {
   const release = await getRelease(db, viewer, releaseId);
   await db.transaction(async (tx) => {
     const r = await revisionFacts(tx, viewer, release.revisionId, true);
@@ -287,7 +346,9 @@ export async function withdrawRelease(db: Db, viewer: Viewer, releaseId: number,
       .for("update");
     if (!row) throw new HttpError("not_found", "No such release");
     if (row.withdrawnAt)
-      throw new HttpError("conflict", `${release.version} is already withdrawn`, { reason: "already_withdrawn" });
+      throw new HttpError("conflict", `${release.version} is already withdrawn`, {
+        reason: "already_withdrawn",
+      });
     await tx
       .update(releases)
       .set({ withdrawnAt: new Date(), withdrawnById: viewer.id, withdrawReason: reason })
@@ -300,14 +361,21 @@ export async function withdrawRelease(db: Db, viewer: Viewer, releaseId: number,
       summary: `Withdrew ${release.version} of ${r.design.name}`,
       details: { designId: r.designId, revisionId: r.id, version: release.version, reason },
     });
-    await notify(tx, "withdrawn", { ...mailBase(r, viewer.id), release: { id: releaseId, version: release.version }, reason });
+    await notify(tx, "withdrawn", {
+      ...mailBase(r, viewer.id),
+      release: { id: releaseId, version: release.version },
+      reason,
+    });
   });
   return getRelease(db, viewer, releaseId);
 }
 
 /** The newest releases in the viewer's projects, for the home page. */
 export async function newestReleases(db: Db, viewer: Viewer, limit: number, activeOnly: boolean) {
-  const rows = await releaseRows(db, and(myProjects(db, viewer), activeOnly ? isNull(releases.withdrawnAt) : undefined));
+  const rows = await releaseRows(
+    db,
+    and(myProjects(db, viewer), activeOnly ? isNull(releases.withdrawnAt) : undefined),
+  );
   return rows.slice(0, limit).map((r) => ({
     id: r.id,
     designName: r.designName,

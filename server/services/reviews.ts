@@ -50,7 +50,12 @@ export interface RevisionFacts extends LifecycleSubject {
 }
 
 /** The revision (locked FOR UPDATE inside a transaction when asked) if the viewer is a member; 404 otherwise. */
-export async function revisionFacts(db: Db | Tx, viewer: Viewer, id: number, lock = false): Promise<RevisionFacts> {
+export async function revisionFacts(
+  db: Db | Tx,
+  viewer: Viewer,
+  id: number,
+  lock = false,
+): Promise<RevisionFacts> {
   const q = db
     .select({
       id: revisions.id,
@@ -101,7 +106,11 @@ interface StoredReport {
 /** The finished report of a content hash as a summary, or null while there is none. */
 export async function reportSummary(db: Db | Tx, contentHash: string): Promise<ReportSummary | null> {
   const [row] = await db
-    .select({ report: analysisReports.report, state: analysisReports.state, finishedAt: analysisReports.finishedAt })
+    .select({
+      report: analysisReports.report,
+      state: analysisReports.state,
+      finishedAt: analysisReports.finishedAt,
+    })
     .from(analysisReports)
     .where(eq(analysisReports.contentHash, contentHash));
   if (!row || row.state !== "done" || row.report === null) return null;
@@ -137,12 +146,7 @@ export function mailBase(r: RevisionFacts, actorUserId: number) {
  * Move a draft to in_review: the lifecycle allows it, and a finished report exists for the hash being fixed.
  * Runs in the caller's transaction with the revision already locked; writes the audit row and the mail.
  */
-export async function submitInTx(
-  tx: Tx,
-  viewer: Viewer,
-  r: RevisionFacts,
-  hash: string,
-): Promise<void> {
+export async function submitInTx(tx: Tx, viewer: Viewer, r: RevisionFacts, hash: string): Promise<void> {
   const next = authorize("submit", r, viewer);
   const report = await reportSummary(tx, hash);
   if (!report)
@@ -161,7 +165,13 @@ export async function submitInTx(
     subjectType: "revision",
     subjectId: r.id,
     summary: `Submitted r${r.number} of ${r.design.name} for review`,
-    details: { designId: r.design.id, number: r.number, contentHash: hash, reportHash: report.reportHash, pass: report.pass },
+    details: {
+      designId: r.design.id,
+      number: r.number,
+      contentHash: hash,
+      reportHash: report.reportHash,
+      pass: report.pass,
+    },
   });
   await notify(tx, "submitted", { ...mailBase({ ...r, submittedById: viewer.id }, viewer.id) });
 }
@@ -183,9 +193,13 @@ export async function decide(
     if (!r.contentHash) throw new Error(`revision ${r.id} is ${r.state} without a content hash`);
     const report = await reportSummary(tx, r.contentHash);
     if (!report)
-      throw new HttpError("conflict", "The report this decision would be bound to is missing: run the analysis again", {
-        reason: "no_report",
-      });
+      throw new HttpError(
+        "conflict",
+        "The report this decision would be bound to is missing: run the analysis again",
+        {
+          reason: "no_report",
+        },
+      );
     const [row] = await tx
       .insert(reviews)
       .values({
@@ -206,7 +220,12 @@ export async function decide(
       subjectType: "revision",
       subjectId: r.id,
       summary: `${approved ? "Approved" : "Requested changes to"} r${r.number} of ${r.design.name}`,
-      details: { reviewId: row.id, contentHash: r.contentHash, reportHash: report.reportHash, comment: input.comment },
+      details: {
+        reviewId: row.id,
+        contentHash: r.contentHash,
+        reportHash: report.reportHash,
+        comment: input.comment,
+      },
     });
     if (approved) await notify(tx, "approved", { ...mailBase(r, viewer.id), comment: input.comment });
     else await notify(tx, "changes-requested", { ...mailBase(r, viewer.id), comment: input.comment });
@@ -218,12 +237,20 @@ export async function decide(
 }
 
 /** POST /api/revisions/:id/comments */
-export async function addComment(db: Db, viewer: Viewer, revisionId: number, body: string): Promise<ReviewComment> {
+export async function addComment(
+  db: Db,
+  viewer: Viewer,
+  revisionId: number,
+  body: string,
+): Promise<ReviewComment> {
   await revisionFacts(db, viewer, revisionId);
   const commentId = await db.transaction(async (tx) => {
     const r = await revisionFacts(tx, viewer, revisionId, true);
     authorize("comment", r, viewer);
-    const [row] = await tx.insert(reviewComments).values({ revisionId, authorId: viewer.id, body }).returning({ id: reviewComments.id });
+    const [row] = await tx
+      .insert(reviewComments)
+      .values({ revisionId, authorId: viewer.id, body })
+      .returning({ id: reviewComments.id });
     if (!row) throw new Error("comment insert returned no row");
     await recordAudit(tx, {
       action: "review.comment",
@@ -242,12 +269,23 @@ export async function addComment(db: Db, viewer: Viewer, revisionId: number, bod
 
 async function commentRows(db: Db | Tx, where: ReturnType<typeof eq>): Promise<ReviewComment[]> {
   const rows = await db
-    .select({ id: reviewComments.id, body: reviewComments.body, at: reviewComments.at, authorId: users.id, authorName: users.displayName })
+    .select({
+      id: reviewComments.id,
+      body: reviewComments.body,
+      at: reviewComments.at,
+      authorId: users.id,
+      authorName: users.displayName,
+    })
     .from(reviewComments)
     .innerJoin(users, eq(users.id, reviewComments.authorId))
     .where(where)
     .orderBy(asc(reviewComments.at), asc(reviewComments.id));
-  return rows.map((c) => ({ id: c.id, body: c.body, at: c.at.toISOString(), author: person(c.authorId, c.authorName) }));
+  return rows.map((c) => ({
+    id: c.id,
+    body: c.body,
+    at: c.at.toISOString(),
+    author: person(c.authorId, c.authorName),
+  }));
 }
 
 /** Decisions matching a condition, oldest first. */
@@ -268,21 +306,36 @@ export async function reviewRows(db: Db | Tx, where: ReturnType<typeof eq>): Pro
     .innerJoin(users, eq(users.id, reviews.reviewerId))
     .where(where)
     .orderBy(asc(reviews.at), asc(reviews.id));
-  return rows.map(({ reviewerId, reviewerName, at, ...r }) => ({ ...r, at: at.toISOString(), reviewer: person(reviewerId, reviewerName) }));
+  return rows.map(({ reviewerId, reviewerName, at, ...r }) => ({
+    ...r,
+    at: at.toISOString(),
+    reviewer: person(reviewerId, reviewerName),
+  }));
 }
 
 /** GET /api/revisions/:id/review */
 export async function reviewPage(db: Db, viewer: Viewer, revisionId: number): Promise<ReviewPage> {
   const r = await revisionFacts(db, viewer, revisionId);
   const [submitter] = r.submittedById
-    ? await db.select({ id: users.id, displayName: users.displayName }).from(users).where(eq(users.id, r.submittedById))
+    ? await db
+        .select({ id: users.id, displayName: users.displayName })
+        .from(users)
+        .where(eq(users.id, r.submittedById))
     : [];
   // The previous release: the newest release of an earlier revision of the same design, withdrawn or not.
   const [prev] = await db
-    .select({ id: releases.id, version: releases.version, revisionId: releases.revisionId, number: revisions.number, hash: releases.contentHash })
+    .select({
+      id: releases.id,
+      version: releases.version,
+      revisionId: releases.revisionId,
+      number: revisions.number,
+      hash: releases.contentHash,
+    })
     .from(releases)
     .innerJoin(revisions, eq(revisions.id, releases.revisionId))
-    .where(and(eq(releases.designId, r.designId), lt(revisions.number, r.number), isNull(releases.withdrawnAt)))
+    .where(
+      and(eq(releases.designId, r.designId), lt(revisions.number, r.number), isNull(releases.withdrawnAt)),
+    )
     .orderBy(desc(releases.releasedAt), desc(releases.id))
     .limit(1);
   return {
@@ -298,7 +351,13 @@ export async function reviewPage(db: Db, viewer: Viewer, revisionId: number): Pr
     project: r.project,
     report: r.contentHash ? await reportSummary(db, r.contentHash) : null,
     previousRelease: prev
-      ? { releaseId: prev.id, version: prev.version, revisionId: prev.revisionId, revisionNumber: prev.number, report: await reportSummary(db, prev.hash) }
+      ? {
+          releaseId: prev.id,
+          version: prev.version,
+          revisionId: prev.revisionId,
+          revisionNumber: prev.number,
+          report: await reportSummary(db, prev.hash),
+        }
       : null,
     comments: await commentRows(db, eq(reviewComments.revisionId, r.id)),
     decisions: await reviewRows(db, eq(reviews.revisionId, r.id)),
@@ -308,7 +367,8 @@ export async function reviewPage(db: Db, viewer: Viewer, revisionId: number): Pr
 
 /** GET /api/reviews/queue: revisions in review in the reviewer's projects, oldest submission first. */
 export async function reviewQueue(db: Db, viewer: Viewer): Promise<QueueItem[]> {
-  if (!viewer.roles.includes("reviewer")) throw new HttpError("forbidden", "The review queue is for reviewers");
+  if (!viewer.roles.includes("reviewer"))
+    throw new HttpError("forbidden", "The review queue is for reviewers");
   const rows = await db
     .select({
       revisionId: revisions.id,
@@ -333,7 +393,10 @@ export async function reviewQueue(db: Db, viewer: Viewer): Promise<QueueItem[]> 
         eq(revisions.state, "in_review"),
         inArray(
           designs.projectId,
-          db.select({ id: projectMembers.projectId }).from(projectMembers).where(eq(projectMembers.userId, viewer.id)),
+          db
+            .select({ id: projectMembers.projectId })
+            .from(projectMembers)
+            .where(eq(projectMembers.userId, viewer.id)),
         ),
       ),
     )
@@ -376,14 +439,26 @@ export type { DecisionInput };
 /** Revisions for the author's home page: mine in a given state, newest first. */
 export async function myRevisionsIn(db: Db, viewer: Viewer, state: RevisionState, limit = 10) {
   const rows = await db
-    .select({ revisionId: revisions.id, revisionNumber: revisions.number, designId: designs.id, designName: designs.name, state: revisions.state })
+    .select({
+      revisionId: revisions.id,
+      revisionNumber: revisions.number,
+      designId: designs.id,
+      designName: designs.name,
+      state: revisions.state,
+    })
     .from(revisions)
     .innerJoin(designs, eq(designs.id, revisions.designId))
     .where(
       and(
         eq(revisions.state, state),
         state === "draft" ? eq(revisions.createdById, viewer.id) : eq(revisions.submittedById, viewer.id),
-        inArray(designs.projectId, db.select({ id: projectMembers.projectId }).from(projectMembers).where(eq(projectMembers.userId, viewer.id))),
+        inArray(
+          designs.projectId,
+          db
+            .select({ id: projectMembers.projectId })
+            .from(projectMembers)
+            .where(eq(projectMembers.userId, viewer.id)),
+        ),
         // A revision a newer one has replaced no longer waits for anything.
         sql`not exists (select 1 from ${revisions} as newer where newer.design_id = ${revisions.designId} and newer.number > ${revisions.number})`,
       ),

@@ -1,5 +1,10 @@
 import { and, asc, desc, eq, sql } from "drizzle-orm";
-import type { CoefficientTable, RevisionContent, RevisionDetail, RevisionState } from "../../shared/schemas/designs";
+import type {
+  CoefficientTable,
+  RevisionContent,
+  RevisionDetail,
+  RevisionState,
+} from "../../shared/schemas/designs";
 import type { Db } from "../db/client";
 import { coefficientTables, designs, revisions } from "../db/schema";
 import { HttpError, validationFailed } from "../http/errors";
@@ -12,12 +17,15 @@ import { STATE_WORDS } from "./lifecycle";
 import { revisionFacts, submitInTx } from "./reviews";
 import { uploadsByIds } from "./uploads";
 
-
 /** The 409 for any change to a revision past draft. */
 function frozen(number: number, state: RevisionState): HttpError {
-  return new HttpError("conflict", `r${number} is ${STATE_WORDS[state]} and cannot change: start a new revision`, {
-    state,
-  });
+  return new HttpError(
+    "conflict",
+    `r${number} is ${STATE_WORDS[state]} and cannot change: start a new revision`,
+    {
+      state,
+    },
+  );
 }
 
 async function revisionRow(db: Db | Tx, id: number, lock = false) {
@@ -40,7 +48,9 @@ async function visibleRevision(db: Db, viewer: Viewer, id: number) {
   const row = await revisionRow(db, id);
   if (!row) throw new HttpError("not_found", "No such revision");
   const { design, project } = await visibleDesign(db, viewer, row.designId).catch((e: unknown) => {
-    throw e instanceof HttpError && e.code === "not_found" ? new HttpError("not_found", "No such revision") : e;
+    throw e instanceof HttpError && e.code === "not_found"
+      ? new HttpError("not_found", "No such revision")
+      : e;
   });
   return { row, design, project };
 }
@@ -77,7 +87,9 @@ export async function getRevision(db: Db, viewer: Viewer, id: number): Promise<R
 }
 
 const isUniqueViolation = (e: unknown): boolean =>
-  typeof e === "object" && e !== null && ((e as { code?: string }).code === "23505" || isUniqueViolation((e as { cause?: unknown }).cause));
+  typeof e === "object" &&
+  e !== null &&
+  ((e as { code?: string }).code === "23505" || isUniqueViolation((e as { cause?: unknown }).cause));
 
 /** A new draft copied (content and tables) from the design's latest revision; 409 if a draft exists. */
 export async function createRevision(db: Db, viewer: Viewer, designId: number): Promise<number> {
@@ -85,16 +97,23 @@ export async function createRevision(db: Db, viewer: Viewer, designId: number): 
   const draftExists = (id: number | undefined) =>
     new HttpError("conflict", "This design already has a draft: edit it instead", { revisionId: id });
   const findDraft = async (h: Db | Tx = db) =>
-    (await h
-      .select({ id: revisions.id })
-      .from(revisions)
-      .where(and(eq(revisions.designId, designId), eq(revisions.state, "draft"))))[0]?.id;
+    (
+      await h
+        .select({ id: revisions.id })
+        .from(revisions)
+        .where(and(eq(revisions.designId, designId), eq(revisions.state, "draft")))
+    )[0]?.id;
   try {
     return await db.transaction(async (tx) => {
       // Serialize "new revision" per design so numbers stay dense.
       await tx.select({ id: designs.id }).from(designs).where(eq(designs.id, designId)).for("update");
       const [latest] = await tx
-        .select({ id: revisions.id, number: revisions.number, state: revisions.state, content: revisions.content })
+        .select({
+          id: revisions.id,
+          number: revisions.number,
+          state: revisions.state,
+          content: revisions.content,
+        })
         .from(revisions)
         .where(eq(revisions.designId, designId))
         .orderBy(desc(revisions.number))
@@ -136,7 +155,12 @@ export async function createRevision(db: Db, viewer: Viewer, designId: number): 
 }
 
 /** Replace a draft's content and re-materialize its tables. */
-export async function updateRevision(db: Db, viewer: Viewer, id: number, content: RevisionContent): Promise<RevisionDetail> {
+export async function updateRevision(
+  db: Db,
+  viewer: Viewer,
+  id: number,
+  content: RevisionContent,
+): Promise<RevisionDetail> {
   const { row, design, project } = await visibleRevision(db, viewer, id);
   if (row.state !== "draft") throw frozen(row.number, row.state);
   if (content.kind !== design.kind)
@@ -196,7 +220,11 @@ export async function tableValues(
 ): Promise<{ values: Buffer; sha256: string; role: string }> {
   await visibleRevision(db, viewer, revisionId);
   const [t] = await db
-    .select({ values: coefficientTables.values, sha256: coefficientTables.valuesSha256, role: coefficientTables.role })
+    .select({
+      values: coefficientTables.values,
+      sha256: coefficientTables.valuesSha256,
+      role: coefficientTables.role,
+    })
     .from(coefficientTables)
     .where(and(eq(coefficientTables.id, tableId), eq(coefficientTables.revisionId, revisionId)));
   if (!t) throw new HttpError("not_found", "No such table in this revision");

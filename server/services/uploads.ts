@@ -52,7 +52,12 @@ export function cleanFileName(name: string): string {
 }
 
 /** Parse and store an upload (parse first: a bad file leaves no row). */
-export async function createUpload(db: Db, viewer: Viewer, projectId: number, file: ReceivedFile): Promise<Upload> {
+export async function createUpload(
+  db: Db,
+  viewer: Viewer,
+  projectId: number,
+  file: ReceivedFile,
+): Promise<Upload> {
   await projectAccess(db, viewer, projectId);
   const fileName = cleanFileName(file.originalname);
   let parsed;
@@ -60,7 +65,10 @@ export async function createUpload(db: Db, viewer: Viewer, projectId: number, fi
     parsed = parseCoefficients(file.buffer, { fileName });
   } catch (e) {
     if (e instanceof CoefficientParseError)
-      throw new HttpError("validation_failed", `${fileName}: ${e.message}`, { line: e.line, column: e.column });
+      throw new HttpError("validation_failed", `${fileName}: ${e.message}`, {
+        line: e.line,
+        column: e.column,
+      });
     throw e;
   }
   const sha256 = createHash("sha256").update(file.buffer).digest("hex");
@@ -129,7 +137,11 @@ export async function uploadsByIds(db: Db, projectId: number, ids: number[]): Pr
 }
 
 /** Uploads of a project by id, re-parsed from their stored bytes for materialization. */
-export async function parsedUploads(db: Db, projectId: number, ids: number[]): Promise<Map<number, ParsedUpload>> {
+export async function parsedUploads(
+  db: Db,
+  projectId: number,
+  ids: number[],
+): Promise<Map<number, ParsedUpload>> {
   const out = new Map<number, ParsedUpload>();
   if (ids.length === 0) return out;
   const rows = await db
@@ -138,7 +150,15 @@ export async function parsedUploads(db: Db, projectId: number, ids: number[]): P
     .where(and(eq(uploads.projectId, projectId), inArray(uploads.id, ids)));
   for (const r of rows) {
     const p = parseCoefficients(r.content, { fileName: r.fileName });
-    out.set(r.id, { id: r.id, fileName: r.fileName, sha256: r.sha256, format: r.format, complex: p.complex, re: p.re, im: p.im });
+    out.set(r.id, {
+      id: r.id,
+      fileName: r.fileName,
+      sha256: r.sha256,
+      format: r.format,
+      complex: p.complex,
+      re: p.re,
+      im: p.im,
+    });
   }
   return out;
 }

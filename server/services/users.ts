@@ -161,7 +161,8 @@ function describeUserChange(u: UserRecord, input: UpdateUserInput): string {
   if (input.roles) parts.push(`roles ${u.roles.join(", ")} → ${[...new Set(input.roles)].join(", ")}`);
   if (input.active === false && u.active) parts.push("deactivated");
   if (input.active === true && !u.active) parts.push("reactivated");
-  if (input.displayName !== undefined && input.displayName !== u.displayName) parts.push("display name changed");
+  if (input.displayName !== undefined && input.displayName !== u.displayName)
+    parts.push("display name changed");
   return `Updated user ${u.username}: ${parts.length > 0 ? parts.join("; ") : "no visible change"}`;
 }
 

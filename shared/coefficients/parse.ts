@@ -52,11 +52,16 @@ function describe(token: string): string {
 function parseNumber(token: string, line: number, column: number): number {
   if (NUMBER.test(token)) {
     const v = Number(token);
-    if (!Number.isFinite(v)) throw new CoefficientParseError(`${describe(token)} is too large for a double`, line, column);
+    if (!Number.isFinite(v))
+      throw new CoefficientParseError(`${describe(token)} is too large for a double`, line, column);
     return v;
   }
   if (NON_FINITE.test(token))
-    throw new CoefficientParseError(`${describe(token)} is not allowed: values must be finite numbers`, line, column);
+    throw new CoefficientParseError(
+      `${describe(token)} is not allowed: values must be finite numbers`,
+      line,
+      column,
+    );
   if (token === "") throw new CoefficientParseError("expected a number, found an empty field", line, column);
   throw new CoefficientParseError(`expected a number, found ${describe(token)}`, line, column);
 }
@@ -72,7 +77,8 @@ function contentLines(text: string): Line[] {
   for (let i = 0; i < rows.length; i++) {
     let row = rows[i]!;
     const trimmed = row.trim();
-    if (trimmed === "" || trimmed.startsWith("#") || trimmed.startsWith("//") || trimmed.startsWith("%")) continue;
+    if (trimmed === "" || trimmed.startsWith("#") || trimmed.startsWith("//") || trimmed.startsWith("%"))
+      continue;
     const hash = row.indexOf("#");
     if (hash > 0) row = row.slice(0, hash);
     const slashes = row.indexOf("//");
@@ -116,7 +122,11 @@ function detectSeparator(sample: string): "," | ";" | "\t" | "space" {
 
 function checkCount(n: number, line: number) {
   if (n > MAX_UPLOAD_VALUES)
-    throw new CoefficientParseError(`more than ${MAX_UPLOAD_VALUES.toLocaleString("en")} values (the limit)`, line, 1);
+    throw new CoefficientParseError(
+      `more than ${MAX_UPLOAD_VALUES.toLocaleString("en")} values (the limit)`,
+      line,
+      1,
+    );
 }
 
 function parseJson(text: string): ParsedCoefficients {
@@ -130,11 +140,16 @@ function parseJson(text: string): ParsedCoefficients {
     const line = before.split(/\r\n|\n|\r/).length;
     const column = offset - Math.max(before.lastIndexOf("\n"), before.lastIndexOf("\r"));
     const found = offset < text.length ? `character ${describe(text[offset]!)}` : "end of file";
-    throw new CoefficientParseError(`invalid JSON: unexpected ${found} (${(e as Error).message.split("\n")[0]})`, line, column);
+    throw new CoefficientParseError(
+      `invalid JSON: unexpected ${found} (${(e as Error).message.split("\n")[0]})`,
+      line,
+      column,
+    );
   }
   const at = (path: string) => new CoefficientParseError(`${path}`, 0, 0);
   const num = (v: unknown, path: string): number => {
-    if (typeof v !== "number") throw at(`${path}: expected a number, found ${v === null ? "null" : typeof v}`);
+    if (typeof v !== "number")
+      throw at(`${path}: expected a number, found ${v === null ? "null" : typeof v}`);
     return v;
   };
   const pick = (o: Record<string, unknown>, names: string[]) => names.find((k) => k in o);
@@ -253,8 +268,16 @@ function parseComplexText(lines: Line[]): ParsedCoefficients {
     const m = COMPLEX.exec(token.replace(/\s+/g, ""));
     if (!m || (m[1] === undefined && m[4] === undefined) || token === "") {
       if (NON_FINITE.test(token) || /nan|inf/i.test(token))
-        throw new CoefficientParseError(`${describe(token)} is not allowed: values must be finite numbers`, l.number, column);
-      throw new CoefficientParseError(`expected a complex number like 0.5-0.25j, found ${describe(token)}`, l.number, column);
+        throw new CoefficientParseError(
+          `${describe(token)} is not allowed: values must be finite numbers`,
+          l.number,
+          column,
+        );
+      throw new CoefficientParseError(
+        `expected a complex number like 0.5-0.25j, found ${describe(token)}`,
+        l.number,
+        column,
+      );
     }
     let r = 0;
     let q = 0;
@@ -278,43 +301,63 @@ function parseComplexText(lines: Line[]): ParsedCoefficients {
 }
 
 /** Parse an uploaded coefficient file (bytes or text). Throws CoefficientParseError with the position. */
-export function parseCoefficients(input: Uint8Array | string, opts: { fileName?: string } = {}): ParsedCoefficients {
+export function parseCoefficients(
+  input: Uint8Array | string,
+  opts: { fileName?: string } = {},
+): ParsedCoefficients {
   let text: string;
   if (typeof input === "string") {
     text = input;
   } else {
     if (input.byteLength > MAX_UPLOAD_BYTES)
-      throw new CoefficientParseError(`the file is ${input.byteLength} bytes; at most ${MAX_UPLOAD_BYTES} (32 MiB) are accepted`, 0, 0);
+      throw new CoefficientParseError(
+        `the file is ${input.byteLength} bytes; at most ${MAX_UPLOAD_BYTES} (32 MiB) are accepted`,
+        0,
+        0,
+      );
     try {
       text = new TextDecoder("utf-8", { fatal: true }).decode(input);
     } catch {
       throw new CoefficientParseError("the file is not UTF-8 text", 0, 0);
     }
   }
-  if (text.length > MAX_UPLOAD_BYTES)
-    throw new CoefficientParseError(`the file is larger than 32 MiB`, 0, 0);
+  if (text.length > MAX_UPLOAD_BYTES) throw new CoefficientParseError(`the file is larger than 32 MiB`, 0, 0);
   if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
   const name = (opts.fileName ?? "").toLowerCase();
   const trimmed = text.trimStart();
   if (name.endsWith(".json") || trimmed.startsWith("[") || trimmed.startsWith("{")) return parseJson(text);
 
   const lines = contentLines(text);
-  if (lines.length === 0) throw new CoefficientParseError("the file has no values (only blank or comment lines)", 0, 0);
+  if (lines.length === 0)
+    throw new CoefficientParseError("the file has no values (only blank or comment lines)", 0, 0);
 
   // Complex text when the first value line carries an imaginary unit.
   const firstData = lines.find((l) => /\d/.test(l.text)) ?? lines[0]!;
-  if (/^\(?\s*[+-]?[\d.]*(?:[eE][+-]?\d+)?\s*[+-]?\s*[\d.]*(?:[eE][+-]?\d+)?\s*\*?\s*[ij]\s*\)?$/.test(firstData.text.trim()))
+  if (
+    /^\(?\s*[+-]?[\d.]*(?:[eE][+-]?\d+)?\s*[+-]?\s*[\d.]*(?:[eE][+-]?\d+)?\s*\*?\s*[ij]\s*\)?$/.test(
+      firstData.text.trim(),
+    )
+  )
     return parseComplexText(lines);
 
   const separator = detectSeparator(firstData.text);
   const format: CoefficientFormat =
-    separator === "\t" ? "tsv" : separator === "," || separator === ";" ? "csv" : name.endsWith(".tsv") ? "tsv" : "text";
+    separator === "\t"
+      ? "tsv"
+      : separator === "," || separator === ";"
+        ? "csv"
+        : name.endsWith(".tsv")
+          ? "tsv"
+          : "text";
 
   // A header row is a first line whose fields are not all numbers.
   let header: string[] | null = null;
   let body = lines;
   const firstFields = splitFields(lines[0]!.text, separator);
-  if (firstFields.some((f) => !NUMBER.test(f.token) && !NON_FINITE.test(f.token)) && firstFields.some((f) => /[a-z]/i.test(f.token))) {
+  if (
+    firstFields.some((f) => !NUMBER.test(f.token) && !NON_FINITE.test(f.token)) &&
+    firstFields.some((f) => /[a-z]/i.test(f.token))
+  ) {
     const names = firstFields.map((f) => f.token.toLowerCase());
     const known = names.every((n) => I_NAMES.has(n) || Q_NAMES.has(n) || INDEX_NAMES.has(n));
     if (!known) {
@@ -345,7 +388,11 @@ export function parseCoefficients(input: Uint8Array | string, opts: { fileName?:
     qCol = names.findIndex((n) => Q_NAMES.has(n));
     if (iCol < 0) iCol = dataCols[0] ?? 0;
     if (dataCols.length > 2)
-      throw new CoefficientParseError(`expected one value column or two (I, Q), found ${dataCols.length}`, lines[0]!.number, 1);
+      throw new CoefficientParseError(
+        `expected one value column or two (I, Q), found ${dataCols.length}`,
+        lines[0]!.number,
+        1,
+      );
   } else {
     if (width > 2)
       throw new CoefficientParseError(

@@ -4,15 +4,33 @@
  * accumulator growth, the bit-width sweep and small plot data. Returns plain JSON-able data; non-finite
  * figures (e.g. the SQNR of an exactly representable table) are written as null.
  */
-import { AnalysisSpecSchema, type AnalysisSpec, type FirSource, type WaveformSource } from "../schemas/analysis";
+import {
+  AnalysisSpecSchema,
+  type AnalysisSpec,
+  type FirSource,
+  type WaveformSource,
+} from "../schemas/analysis";
 import { accumulatorGrowth } from "./accumulator";
-import { compress, convolutionSize, interpolationWorkspace, multiplySpectra, powerOf, spectrumOf } from "./compression";
+import {
+  compress,
+  convolutionSize,
+  interpolationWorkspace,
+  multiplySpectra,
+  powerOf,
+  spectrumOf,
+} from "./compression";
 import { applyDoppler, dopplerCut, type DopplerCut } from "./doppler";
 import { designFir } from "./fir-design";
 import { firMagnitude, firMetrics, type Band, type FirMetrics } from "./fir-response";
 import { linearFm } from "./lfm";
 import { matchedFilter } from "./matched-filter";
-import { coefficientSqnrDb, measureInterpolated, mismatchLossDb, peakLossDb, type ResponseMetrics } from "./metrics";
+import {
+  coefficientSqnrDb,
+  measureInterpolated,
+  mismatchLossDb,
+  peakLossDb,
+  type ResponseMetrics,
+} from "./metrics";
 import { nonlinearFm } from "./nlfm";
 import { phaseCode } from "./phase-codes";
 import { quantize } from "./quantize";
@@ -128,7 +146,8 @@ function samplesOf(re: number[], im?: number[]): ComplexSignal {
 
 /** The FIR taps and the bands they are judged by (windowed-sinc edges: cutoff ∓ transition/2). */
 function firOf(src: FirSource): { taps: ComplexSignal; passbands: Band[]; stopbands: Band[] } {
-  if (src.kind === "taps") return { taps: samplesOf(src.re, src.im), passbands: src.passbands, stopbands: src.stopbands };
+  if (src.kind === "taps")
+    return { taps: samplesOf(src.re, src.im), passbands: src.passbands, stopbands: src.stopbands };
   const d = designFir(src);
   const taps = { re: d.taps, im: new Float64Array(d.taps.length) };
   const tw = src.transitionHz / 2;
@@ -139,7 +158,14 @@ function firOf(src: FirSource): { taps: ComplexSignal; passbands: Band[]; stopba
   }
   const lo = src.lowCutoffHz ?? 0;
   const hi = src.highCutoffHz ?? 0;
-  return { taps, passbands: [[lo + tw, hi - tw]], stopbands: [[0, lo - tw], [hi + tw, nyq]] };
+  return {
+    taps,
+    passbands: [[lo + tw, hi - tw]],
+    stopbands: [
+      [0, lo - tw],
+      [hi + tw, nyq],
+    ],
+  };
 }
 
 /** ĥ/g as a signal. */
@@ -163,7 +189,15 @@ function lsbTrace(float: ComplexSignal, q: QuantizedTable): LsbTrace {
     re[i] = (q.valueRe[i]! - q.gain * float.re[i]!) * lsb;
     im[i] = (q.valueIm[i]! - q.gain * float.im[i]!) * lsb;
   }
-  const t = envelope(re, im, 0, n, PLOT_POINTS, (i) => i, (v) => round(v, 4));
+  const t = envelope(
+    re,
+    im,
+    0,
+    n,
+    PLOT_POINTS,
+    (i) => i,
+    (v) => round(v, 4),
+  );
   return { x: t.x, re: t.floatDb, im: t.fixedDb };
 }
 
@@ -181,10 +215,23 @@ function spectrumTrace(a: Float64Array, b: Float64Array, fs: number): PlotTrace 
   }
   let ref = 0;
   for (let k = 0; k < m; k++) ref = Math.max(ref, sa[k]!);
-  return envelope(sa, sb, 0, m, PLOT_POINTS, (k) => ((k - half) * fs) / m, (p) => toDb(p, ref > 0 ? ref : 1));
+  return envelope(
+    sa,
+    sb,
+    0,
+    m,
+    PLOT_POINTS,
+    (k) => ((k - half) * fs) / m,
+    (p) => toDb(p, ref > 0 ? ref : 1),
+  );
 }
 
-function tableReport(role: TableReport["role"], float: ComplexSignal, q: QuantizedTable, inputBits: number | null): TableReport {
+function tableReport(
+  role: TableReport["role"],
+  float: ComplexSignal,
+  q: QuantizedTable,
+  inputBits: number | null,
+): TableReport {
   let accumulator: TableReport["accumulator"] = null;
   if (inputBits !== null && q.spec.signed) {
     const g = accumulatorGrowth(inputBits, q.spec.wordLength, q);
@@ -211,7 +258,10 @@ function flat(o: object): Record<string, number | null> {
   return r;
 }
 
-function difference(a: Record<string, number | null>, b: Record<string, number | null>): Record<string, number | null> {
+function difference(
+  a: Record<string, number | null>,
+  b: Record<string, number | null>,
+): Record<string, number | null> {
   const r: Record<string, number | null> = {};
   for (const k of Object.keys(b)) {
     const x = a[k];
@@ -222,7 +272,11 @@ function difference(a: Record<string, number | null>, b: Record<string, number |
 }
 
 /** Limit checks against a flat figures record; the SQNR limit applies to the worst table. */
-function checkLimits(limits: AcceptanceLimits, fixed: Record<string, number | null | undefined>, worstSqnr: number | null): LimitCheck[] {
+function checkLimits(
+  limits: AcceptanceLimits,
+  fixed: Record<string, number | null | undefined>,
+  worstSqnr: number | null,
+): LimitCheck[] {
   const out: LimitCheck[] = [];
   const max = (name: keyof AcceptanceLimits, v: number | null | undefined) => {
     const limit = limits[name];
@@ -246,7 +300,8 @@ function checkLimits(limits: AcceptanceLimits, fixed: Record<string, number | nu
 
 function worstOf(tables: TableReport[]): number | null {
   let w: number | null = null;
-  for (const t of tables) if (t.coefficientSqnrDb !== null && (w === null || t.coefficientSqnrDb < w)) w = t.coefficientSqnrDb;
+  for (const t of tables)
+    if (t.coefficientSqnrDb !== null && (w === null || t.coefficientSqnrDb < w)) w = t.coefficientSqnrDb;
   return w;
 }
 
@@ -322,7 +377,9 @@ type WaveformSpec = Extract<AnalysisSpec, { kind: "waveform" }>;
 type FilterSpec = Extract<AnalysisSpec, { kind: "filter" }>;
 
 function compressionFigures(m: ResponseMetrics, mismatch: number, peakLoss?: number): CompressionFigures {
-  return peakLoss === undefined ? { ...m, mismatchLossDb: mismatch } : { ...m, mismatchLossDb: mismatch, peakLossDb: peakLoss };
+  return peakLoss === undefined
+    ? { ...m, mismatchLossDb: mismatch }
+    : { ...m, mismatchLossDb: mismatch, peakLossDb: peakLoss };
 }
 
 function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): AnalysisReport {
@@ -346,12 +403,22 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
   const workspace = { interpolation: interpolationWorkspace(size) };
   progress(0.1, "float");
   const hSpec = spectrumOf(h, size);
-  const fl = measureInterpolated(multiplySpectra(sSpec, hSpec, hSpec), measureOpts, { complex: spec.sweep !== undefined, workspace });
+  const fl = measureInterpolated(multiplySpectra(sSpec, hSpec, hSpec), measureOpts, {
+    complex: spec.sweep !== undefined,
+    workspace,
+  });
   progress(0.35, "fixed");
   const hqSpec = spectrumOf(hq, size);
-  const fx = measureInterpolated(multiplySpectra(sqSpec, hqSpec, hqSpec), measureOpts, { complex: false, workspace });
+  const fx = measureInterpolated(multiplySpectra(sqSpec, hqSpec, hqSpec), measureOpts, {
+    complex: false,
+    workspace,
+  });
   const floatFig = compressionFigures(fl.metrics, mismatchLossDb(s, h));
-  const fixedFig = compressionFigures(fx.metrics, mismatchLossDb(sq, hq), peakLossDb(fl.metrics.peakAmplitude, fx.metrics.peakAmplitude));
+  const fixedFig = compressionFigures(
+    fx.metrics,
+    mismatchLossDb(sq, hq),
+    peakLossDb(fl.metrics.peakAmplitude, fx.metrics.peakAmplitude),
+  );
   const tables = [tableReport("tx", s, qs, null), tableReport("rx", h, qh, spec.inputBits)];
   const floatFlat = flat(floatFig);
   const fixedFlat = flat(fixedFig);
@@ -367,7 +434,15 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
   const zc = fl.metrics.peakPositionSamples * u;
   const plots: Record<string, PlotTrace> = {
     compressed: envelope(fl.power, fx.power, 0, span, PLOT_POINTS, xOf, dbOf),
-    mainlobe: envelope(fl.power, fx.power, Math.max(0, zc - zoomHalf), Math.min(span, zc + zoomHalf + 1), 4 * zoomHalf + 4, xOf, dbOf),
+    mainlobe: envelope(
+      fl.power,
+      fx.power,
+      Math.max(0, zc - zoomHalf),
+      Math.min(span, zc + zoomHalf + 1),
+      4 * zoomHalf + 4,
+      xOf,
+      dbOf,
+    ),
     spectrum: spectrumTrace(sSpec, sqSpec, fs),
   };
   const coefficientErrorLsb = { tx: lsbTrace(s, qs), rx: lsbTrace(h, qh) };
@@ -381,16 +456,34 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
       fixed: dopplerCut(sq, hq, { ...base, zeroDopplerPeak: fx.metrics.peakAmplitude }),
     };
     // The cut itself near the target, float and fixed, dB re the zero-Doppler float peak.
-    const echo = (x: ComplexSignal, f: ComplexSignal) => powerOf(compress(applyDoppler(x, base.dopplerHz, fs), f, { interpolation: u, size }).y);
+    const echo = (x: ComplexSignal, f: ComplexSignal) =>
+      powerOf(compress(applyDoppler(x, base.dopplerHz, fs), f, { interpolation: u, size }).y);
     const cutZoom = Math.min(Math.ceil(16 * lobe * u), 2048);
-    plots.doppler = envelope(echo(s, h), echo(sq, hq), Math.max(0, zc - cutZoom), Math.min(span, zc + cutZoom + 1), PLOT_POINTS, xOf, dbOf);
+    plots.doppler = envelope(
+      echo(s, h),
+      echo(sq, hq),
+      Math.max(0, zc - cutZoom),
+      Math.min(span, zc + cutZoom + 1),
+      PLOT_POINTS,
+      xOf,
+      dbOf,
+    );
   }
 
   let sweep: AnalysisReport["sweep"] = null;
   if (spec.sweep) {
     progress(0.7, "sweep");
     const swept = spec.sweep.tables ?? ["rx"];
-    const ctx = prepareSweep({ floatFine: fl.y!, floatPower: fl.power, floatMetrics: fl.metrics, size, interpolation: u, sampleRateHz: fs, expectedIndex, workspace: { power: new Float64Array(size * u), ...workspace } });
+    const ctx = prepareSweep({
+      floatFine: fl.y!,
+      floatPower: fl.power,
+      floatMetrics: fl.metrics,
+      size,
+      interpolation: u,
+      sampleRateHz: fs,
+      expectedIndex,
+      workspace: { power: new Float64Array(size * u), ...workspace },
+    });
     const fixedTxSpec = swept.includes("tx") ? null : sqSpec;
     let txReport: TableReport | undefined;
     const evaluate = (w: number, full: boolean) => {
@@ -402,9 +495,14 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
       const hw = fixedValues(qhw);
       const prod = multiplySpectra(fixedTxSpec ?? spectrumOf(sw, size), spectrumOf(hw, size));
       const m = full ? fullResponse(ctx, prod) : refinedResponse(ctx, prod);
-      const fig = flat(compressionFigures(m, mismatchLossDb(sw, hw), peakLossDb(fl.metrics.peakAmplitude, m.peakAmplitude)));
+      const fig = flat(
+        compressionFigures(m, mismatchLossDb(sw, hw), peakLossDb(fl.metrics.peakAmplitude, m.peakAmplitude)),
+      );
       // An unswept table's report is the same at every W: computed once.
-      const t = [fixedTxSpec ? (txReport ??= tableReport("tx", s, qs, null)) : tableReport("tx", s, qsw, null), tableReport("rx", h, qhw, null)];
+      const t = [
+        fixedTxSpec ? (txReport ??= tableReport("tx", s, qs, null)) : tableReport("tx", s, qsw, null),
+        tableReport("rx", h, qhw, null),
+      ];
       fig.coefficientSqnrDb = worstOf(t.filter((x) => swept.includes(x.role)));
       const pass = checkLimits(spec.limits, fig, worstOf(t)).every((c) => c.pass);
       return { figures: fig, pass };
@@ -460,7 +558,15 @@ function analyzeFilter(spec: FilterSpec, progress: ProgressCallback): AnalysisRe
   const sq = (m: Float64Array) => m.subarray(0, len).map((v) => v * v);
   const dcRef = 10 ** ((floatFlat.passbandGainDb ?? 0) / 10);
   const plots = {
-    response: envelope(sq(magF), sq(magQ), 0, len, PLOT_POINTS, (k) => (k * fs) / magF.length, (p) => toDb(p, dcRef)),
+    response: envelope(
+      sq(magF),
+      sq(magQ),
+      0,
+      len,
+      PLOT_POINTS,
+      (k) => (k * fs) / magF.length,
+      (p) => toDb(p, dcRef),
+    ),
   };
 
   let sweep: AnalysisReport["sweep"] = null;
@@ -472,7 +578,12 @@ function analyzeFilter(spec: FilterSpec, progress: ProgressCallback): AnalysisRe
       const t = [tableReport("fir", taps, qw, null)];
       const fig = flat(figures(fixedValues(qw)));
       fig.coefficientSqnrDb = t[0]!.coefficientSqnrDb;
-      rows.push({ wordLength: w, figures: fig, pass: checkLimits(spec.limits, fig, worstOf(t)).every((c) => c.pass), method: "exact" });
+      rows.push({
+        wordLength: w,
+        figures: fig,
+        pass: checkLimits(spec.limits, fig, worstOf(t)).every((c) => c.pass),
+        method: "exact",
+      });
     }
     const first = rows.find((r) => r.pass);
     sweep = { tables: ["fir"], rows, smallestPassingWordLength: first ? first.wordLength : null };

@@ -8,13 +8,24 @@ export function checkFiniteNumber(name: string, value: unknown): asserts value i
   if (!Number.isFinite(value)) throw new RangeError(`${name} must be finite, got ${value}`);
 }
 
-export function checkInteger(name: string, value: unknown, min: number, max: number): asserts value is number {
+export function checkInteger(
+  name: string,
+  value: unknown,
+  min: number,
+  max: number,
+): asserts value is number {
   checkFiniteNumber(name, value);
   if (!Number.isInteger(value)) throw new RangeError(`${name} must be an integer, got ${value}`);
   if (value < min || value > max) throw new RangeError(`${name} must be in ${min}..${max}, got ${value}`);
 }
 
-export function checkRange(name: string, value: unknown, min: number, max: number, opts?: { exclusiveMin?: boolean }) {
+export function checkRange(
+  name: string,
+  value: unknown,
+  min: number,
+  max: number,
+  opts?: { exclusiveMin?: boolean },
+) {
   checkFiniteNumber(name, value);
   const low = opts?.exclusiveMin ? value <= min : value < min;
   if (low || value > max)
@@ -23,7 +34,11 @@ export function checkRange(name: string, value: unknown, min: number, max: numbe
 
 /** A typed or plain array of finite numbers, 1..MAX_SAMPLES long. */
 export function checkSamples(name: string, values: ArrayLike<number>, opts?: { allowEmpty?: boolean }) {
-  if (values == null || typeof values !== "object" || typeof (values as ArrayLike<number>).length !== "number")
+  if (
+    values == null ||
+    typeof values !== "object" ||
+    typeof (values as ArrayLike<number>).length !== "number"
+  )
     throw new TypeError(`${name} must be an array of numbers`);
   const n = values.length;
   if (n === 0 && !opts?.allowEmpty) throw new RangeError(`${name} must not be empty`);

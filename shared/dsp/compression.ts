@@ -161,7 +161,11 @@ export function interpolateInto(
  * −M/2 so real sequences stay real and y_U[U·n] = y[n] exactly. Returns M·U interleaved samples
  * (computed phase by phase, see `interpolateInto`; `interpolateSpectrumPadded` is the textbook form).
  */
-export function interpolateSpectrum(spectrum: Float64Array, interpolation: number, out?: Float64Array): Float64Array {
+export function interpolateSpectrum(
+  spectrum: Float64Array,
+  interpolation: number,
+  out?: Float64Array,
+): Float64Array {
   checkInteger("interpolation", interpolation, 1, MAX_INTERPOLATION);
   const m = spectrum.length / 2;
   if (interpolation === 1) return fftInterleaved(spectrum, true, out);
@@ -204,7 +208,8 @@ export function interpolateSpectrumPadded(spectrum: Float64Array, interpolation:
 export function interpolatedEnergy(spectrum: Float64Array, interpolation: number): number {
   const m = spectrum.length / 2;
   let e = 0;
-  for (let i = 0; i < spectrum.length; i += 2) e += spectrum[i]! * spectrum[i]! + spectrum[i + 1]! * spectrum[i + 1]!;
+  for (let i = 0; i < spectrum.length; i += 2)
+    e += spectrum[i]! * spectrum[i]! + spectrum[i + 1]! * spectrum[i + 1]!;
   const ny = spectrum[m]! * spectrum[m]! + spectrum[m + 1]! * spectrum[m + 1]!;
   return ((e - ny / 2) * interpolation) / m;
 }
@@ -234,7 +239,9 @@ export function compress(x: ComplexSignal, h: ComplexSignal, opts?: CompressOpti
   checkInteger("interpolation", u, 1, MAX_INTERPOLATION);
   const size = opts?.size ?? convolutionSize(Math.max(x.re.length, h.re.length));
   if (size < x.re.length + h.re.length - 1)
-    throw new RangeError(`size ${size} is shorter than the linear convolution (${x.re.length + h.re.length - 1})`);
+    throw new RangeError(
+      `size ${size} is shorter than the linear convolution (${x.re.length + h.re.length - 1})`,
+    );
   const spectrum = multiplySpectra(spectrumOf(x, size), spectrumOf(h, size));
   return { y: interpolateSpectrum(spectrum, u), size, interpolation: u, spectrum };
 }

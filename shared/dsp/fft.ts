@@ -52,7 +52,8 @@ export function fftInterleaved(data: Float64Array, inverse = false, out?: Float6
 
 /** Interleave a signal into a zero-padded buffer of `size` complex points. */
 export function toInterleaved(s: ComplexSignal, size: number, out?: Float64Array): Float64Array {
-  if (s.re.length > size) throw new RangeError(`signal of ${s.re.length} samples does not fit ${size} points`);
+  if (s.re.length > size)
+    throw new RangeError(`signal of ${s.re.length} samples does not fit ${size} points`);
   const buf = out ?? new Float64Array(2 * size);
   if (out) buf.fill(0);
   for (let i = 0; i < s.re.length; i++) {
@@ -75,7 +76,8 @@ export function fromInterleaved(buf: Float64Array, length = buf.length / 2): Com
 
 /** DFT of a signal zero-padded to `size` (default: next power of two ≥ its length). */
 export function fft(s: ComplexSignal, size = nextPow2(Math.max(2, s.re.length))): ComplexSignal {
-  if (s.re.length > MAX_SAMPLES) throw new RangeError(`signal has ${s.re.length} samples; at most ${MAX_SAMPLES}`);
+  if (s.re.length > MAX_SAMPLES)
+    throw new RangeError(`signal has ${s.re.length} samples; at most ${MAX_SAMPLES}`);
   return fromInterleaved(fftInterleaved(toInterleaved(s, size)));
 }
 

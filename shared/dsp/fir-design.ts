@@ -87,7 +87,9 @@ export function designFir(opts: FirDesignOptions): FirDesign {
     edge("lowCutoffHz", opts.lowCutoffHz);
     edge("highCutoffHz", opts.highCutoffHz);
     if (opts.lowCutoffHz! + half >= opts.highCutoffHz! - half)
-      throw new RangeError("highCutoffHz − lowCutoffHz must exceed transitionHz so the passband is not empty");
+      throw new RangeError(
+        "highCutoffHz − lowCutoffHz must exceed transitionHz so the passband is not empty",
+      );
   }
 
   const dw = (2 * Math.PI * opts.transitionHz) / fs;
@@ -114,7 +116,9 @@ export function designFir(opts: FirDesignOptions): FirDesign {
     order = factor !== undefined ? Math.ceil((factor * Math.PI) / dw) : kaiserOrder(a, dw);
     order = Math.max(order, 2);
     if (order + 1 > MAX_SAMPLES)
-      throw new RangeError(`transitionHz is too narrow: it needs ${order + 1} taps, at most ${MAX_SAMPLES} are allowed`);
+      throw new RangeError(
+        `transitionHz is too narrow: it needs ${order + 1} taps, at most ${MAX_SAMPLES} are allowed`,
+      );
   }
 
   const w = makeWindow(window, order + 1);

@@ -45,22 +45,29 @@ export function linearFm(opts: LinearFmOptions): ComplexSignal {
   checkRange("bandwidthHz", bandwidthHz, 0, Number.MAX_VALUE, { exclusiveMin: true });
   const n = pulseSamples(pulseWidthS, sampleRateHz);
   const direction = opts.direction ?? "up";
-  if (direction !== "up" && direction !== "down") throw new TypeError(`direction must be "up" or "down", got ${String(direction)}`);
+  if (direction !== "up" && direction !== "down")
+    throw new TypeError(`direction must be "up" or "down", got ${String(direction)}`);
   const output = opts.output ?? "complex";
-  if (output !== "complex" && output !== "real") throw new TypeError(`output must be "complex" or "real", got ${String(output)}`);
+  if (output !== "complex" && output !== "real")
+    throw new TypeError(`output must be "complex" or "real", got ${String(output)}`);
 
   let fIf = 0;
   if (output === "complex") {
     if (sampleRateHz < bandwidthHz)
-      throw new RangeError(`sampleRateHz (${sampleRateHz}) must be ≥ bandwidthHz (${bandwidthHz}) for complex output`);
+      throw new RangeError(
+        `sampleRateHz (${sampleRateHz}) must be ≥ bandwidthHz (${bandwidthHz}) for complex output`,
+      );
     if (opts.intermediateFrequencyHz !== undefined)
       throw new RangeError("intermediateFrequencyHz applies to real output only");
   } else {
-    if (opts.intermediateFrequencyHz === undefined) throw new RangeError("intermediateFrequencyHz is required for real output");
+    if (opts.intermediateFrequencyHz === undefined)
+      throw new RangeError("intermediateFrequencyHz is required for real output");
     checkFiniteNumber("intermediateFrequencyHz", opts.intermediateFrequencyHz);
     fIf = opts.intermediateFrequencyHz;
     if (fIf < bandwidthHz / 2)
-      throw new RangeError(`intermediateFrequencyHz (${fIf}) must be ≥ bandwidthHz/2 (${bandwidthHz / 2}) so the sweep stays above 0 Hz`);
+      throw new RangeError(
+        `intermediateFrequencyHz (${fIf}) must be ≥ bandwidthHz/2 (${bandwidthHz / 2}) so the sweep stays above 0 Hz`,
+      );
     if (sampleRateHz < 2 * (fIf + bandwidthHz / 2))
       throw new RangeError(
         `sampleRateHz (${sampleRateHz}) must be ≥ 2·(intermediateFrequencyHz + bandwidthHz/2) = ${2 * (fIf + bandwidthHz / 2)} for real output`,

@@ -88,7 +88,15 @@ function lobeEnergy(power: Float64Array, lobe: Mainlobe): number {
 }
 
 /** The figures once peak, mainlobe, its energy, the total energy and the largest sidelobe are known. */
-function figuresOf(power: Float64Array, opts: MeasureOptions, peak: number, lobe: Mainlobe, mainE: number, total: number, maxSide: number): ResponseMetrics {
+function figuresOf(
+  power: Float64Array,
+  opts: MeasureOptions,
+  peak: number,
+  lobe: Mainlobe,
+  mainE: number,
+  total: number,
+  maxSide: number,
+): ResponseMetrics {
   const u = opts.interpolation;
   const peakPower = power[peak]!;
   const sideE = Math.max(total - mainE, 0);
@@ -146,7 +154,8 @@ export function measureResponse(power: Float64Array, opts: MeasureOptions): Resp
   for (let b = lastBlock + 1; b < blocks.length; b++) if (blocks[b]! > maxSide) maxSide = blocks[b]!;
   // The blocks the mainlobe cuts through: only their samples outside it.
   for (let i = firstBlock * BLOCK; i < lobe.left; i++) if (power[i]! > maxSide) maxSide = power[i]!;
-  for (let i = lobe.right + 1; i < Math.min((lastBlock + 1) * BLOCK, len); i++) if (power[i]! > maxSide) maxSide = power[i]!;
+  for (let i = lobe.right + 1; i < Math.min((lastBlock + 1) * BLOCK, len); i++)
+    if (power[i]! > maxSide) maxSide = power[i]!;
   return figuresOf(power, opts, peak, lobe, mainE, total, maxSide);
 }
 

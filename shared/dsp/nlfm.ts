@@ -43,7 +43,8 @@ export function nlfmFrequency(opts: NonlinearFmOptions): Float64Array {
   for (let j = 1; j < m; j++) {
     const a = w[j - 1]!;
     const b = w[j]!;
-    if (a < -1e-12 || b < -1e-12) throw new RangeError("window must be non-negative to shape a power spectrum");
+    if (a < -1e-12 || b < -1e-12)
+      throw new RangeError("window must be non-negative to shape a power spectrum");
     c[j] = c[j - 1]! + (Math.max(0, a) + Math.max(0, b)) / 2;
   }
   const total = c[m - 1]!;

@@ -38,7 +38,10 @@ export function phaseCodePhases(code: PhaseCodeSpec): Float64Array {
   switch (code.kind) {
     case "barker": {
       const chips = BARKER_CODES[code.length as keyof typeof BARKER_CODES];
-      if (!chips) throw new RangeError(`code.length must be a Barker length (2, 3, 4, 5, 7, 11, 13), got ${String(code.length)}`);
+      if (!chips)
+        throw new RangeError(
+          `code.length must be a Barker length (2, 3, 4, 5, 7, 11, 13), got ${String(code.length)}`,
+        );
       return Float64Array.from(chips, (c) => (c > 0 ? 0 : Math.PI));
     }
     case "frank":

@@ -16,7 +16,14 @@
  */
 import { fftInterleaved } from "./fft";
 import { interpolatedEnergy } from "./compression";
-import { findMainlobe, halfPowerCrossing, measureInterpolated, SPEED_OF_LIGHT, type MeasureWorkspace, type ResponseMetrics } from "./metrics";
+import {
+  findMainlobe,
+  halfPowerCrossing,
+  measureInterpolated,
+  SPEED_OF_LIGHT,
+  type MeasureWorkspace,
+  type ResponseMetrics,
+} from "./metrics";
 import { besselI0 } from "./windows";
 
 /** Half-length of the local interpolation kernel of Δ, in coarse samples. */
@@ -162,7 +169,10 @@ export function refinedResponse(ctx: SweepContext, spectrum: Float64Array): Resp
   let cPeak = 0;
   for (let n = 1; n < m; n++) if (pc[n]! > pc[cPeak]!) cPeak = n;
   // Mainlobe on a fine window around the coarse peak, widened until both first minima lie inside it.
-  let half = Math.max(4, Math.ceil(Math.max(-ctx.floatMetrics.mainlobeSamples.left, ctx.floatMetrics.mainlobeSamples.right)) + 2);
+  let half = Math.max(
+    4,
+    Math.ceil(Math.max(-ctx.floatMetrics.mainlobeSamples.left, ctx.floatMetrics.mainlobeSamples.right)) + 2,
+  );
   for (;;) {
     const start = (cPeak - half) * u;
     const len = 2 * half * u + 1;
@@ -218,8 +228,15 @@ export function refinedResponse(ctx: SweepContext, spectrum: Float64Array): Resp
 
 /** The full computation for one product spectrum (the reference the refinement is checked against). */
 export function fullResponse(ctx: SweepReference, spectrum: Float64Array): ResponseMetrics {
-  const opts = { interpolation: ctx.interpolation, sampleRateHz: ctx.sampleRateHz, expectedIndex: ctx.expectedIndex };
-  return measureInterpolated(spectrum, opts, { complex: false, ...(ctx.workspace ? { workspace: ctx.workspace } : {}) }).metrics;
+  const opts = {
+    interpolation: ctx.interpolation,
+    sampleRateHz: ctx.sampleRateHz,
+    expectedIndex: ctx.expectedIndex,
+  };
+  return measureInterpolated(spectrum, opts, {
+    complex: false,
+    ...(ctx.workspace ? { workspace: ctx.workspace } : {}),
+  }).metrics;
 }
 
 /** One row of a sweep. */

@@ -68,7 +68,8 @@ export function checkWindowSpec(spec: WindowSpec, name = "window"): void {
     case "taylor":
       checkInteger(`${name}.nbar`, spec.nbar, 1, 1000);
       checkRange(`${name}.sidelobeDb`, spec.sidelobeDb, -300, 0, {});
-      if (spec.sidelobeDb >= 0) throw new RangeError(`${name}.sidelobeDb must be negative, got ${spec.sidelobeDb}`);
+      if (spec.sidelobeDb >= 0)
+        throw new RangeError(`${name}.sidelobeDb must be negative, got ${spec.sidelobeDb}`);
       return;
     default:
       throw new TypeError(`${name}.kind is unknown: ${String((spec as { kind?: unknown }).kind)}`);
@@ -84,7 +85,8 @@ export function makeWindow(spec: WindowSpec, n: number, opts?: { periodic?: bool
   checkWindowSpec(spec);
   checkInteger("n", n, 1, MAX_SAMPLES);
   if (opts?.periodic) {
-    if (n + 1 > MAX_SAMPLES) throw new RangeError(`n must be below ${MAX_SAMPLES} for a periodic window, got ${n}`);
+    if (n + 1 > MAX_SAMPLES)
+      throw new RangeError(`n must be below ${MAX_SAMPLES} for a periodic window, got ${n}`);
     return symmetricWindow(spec, n + 1).slice(0, n);
   }
   return symmetricWindow(spec, n);
@@ -116,7 +118,8 @@ function cosineSum(a: readonly number[], n: number): Float64Array {
   const m = n - 1;
   for (let i = 0; i < n; i++) {
     let v = 0;
-    for (let k = 0; k < a.length; k++) v += (k % 2 === 0 ? 1 : -1) * a[k]! * Math.cos((2 * Math.PI * k * i) / m);
+    for (let k = 0; k < a.length; k++)
+      v += (k % 2 === 0 ? 1 : -1) * a[k]! * Math.cos((2 * Math.PI * k * i) / m);
     w[i] = v;
   }
   return w;
@@ -312,7 +315,9 @@ export function windowWarnings(spec: WindowSpec, n: number): string[] {
   if (spec.kind === "taylor") {
     const need = taylorMinNbar(spec.sidelobeDb);
     if (spec.nbar < need)
-      out.push(`Taylor n̄ = ${spec.nbar} is below ${need} (2A² + 0.5) for ${spec.sidelobeDb} dB: the taper is not monotonic`);
+      out.push(
+        `Taylor n̄ = ${spec.nbar} is below ${need} (2A² + 0.5) for ${spec.sidelobeDb} dB: the taper is not monotonic`,
+      );
   }
   return out;
 }

@@ -16,7 +16,11 @@ export const WindowSpecSchema = z.discriminatedUnion("kind", [
   z.object({ kind: z.literal("blackman-harris") }),
   z.object({ kind: z.literal("kaiser"), beta: z.number().min(0).max(100) }),
   z.object({ kind: z.literal("chebyshev"), attenuationDb: z.number().min(13).max(300) }),
-  z.object({ kind: z.literal("taylor"), nbar: z.number().int().min(1).max(100), sidelobeDb: z.number().min(-300).max(-13) }),
+  z.object({
+    kind: z.literal("taylor"),
+    nbar: z.number().int().min(1).max(100),
+    sidelobeDb: z.number().min(-300).max(-13),
+  }),
 ]);
 
 /** Fixed-point format of one table (shared/dsp/types.ts FixedPointSpec), with the usual defaults. */
@@ -106,7 +110,10 @@ export const SweepSpecSchema = z
   .object({
     minBits: z.number().int().min(2).max(32).default(6),
     maxBits: z.number().int().min(2).max(32).default(24),
-    tables: z.array(z.enum(["tx", "rx", "fir"])).min(1).optional(),
+    tables: z
+      .array(z.enum(["tx", "rx", "fir"]))
+      .min(1)
+      .optional(),
   })
   .refine((s) => s.minBits <= s.maxBits, { message: "minBits must not exceed maxBits", path: ["maxBits"] });
 
@@ -123,7 +130,9 @@ const common = {
 export const WaveformAnalysisSpecSchema = z.object({
   kind: z.literal("waveform"),
   tx: WaveformSourceSchema,
-  rx: z.object({ window: WindowSpecSchema.default({ kind: "rectangular" }) }).default({ window: { kind: "rectangular" } }),
+  rx: z
+    .object({ window: WindowSpecSchema.default({ kind: "rectangular" }) })
+    .default({ window: { kind: "rectangular" } }),
   fixedPoint: z.object({ tx: FixedPointSpecSchema, rx: FixedPointSpecSchema }),
   /** Doppler frequency of the echo for the ambiguity cut, Hz (absent = no Doppler cut). */
   dopplerHz: z.number().finite().optional(),
@@ -141,7 +150,10 @@ export const FilterAnalysisSpecSchema = z.object({
 });
 
 /** Everything `analyze()` needs. */
-export const AnalysisSpecSchema = z.discriminatedUnion("kind", [WaveformAnalysisSpecSchema, FilterAnalysisSpecSchema]);
+export const AnalysisSpecSchema = z.discriminatedUnion("kind", [
+  WaveformAnalysisSpecSchema,
+  FilterAnalysisSpecSchema,
+]);
 
 /** A parsed (defaults applied) analysis spec. */
 export type AnalysisSpec = z.infer<typeof AnalysisSpecSchema>;

@@ -13,7 +13,10 @@ export const UsernameSchema = z
   .regex(/^[a-z0-9][a-z0-9._-]*$/, "lower-case letters, digits, dot, dash or underscore");
 
 /** Minimum password rules, shared by the sign-in, account and admin forms. */
-export const NewPasswordSchema = z.string().min(10, "at least 10 characters").max(200, "at most 200 characters");
+export const NewPasswordSchema = z
+  .string()
+  .min(10, "at least 10 characters")
+  .max(200, "at most 200 characters");
 
 export const SignInSchema = z.object({
   username: z.string().trim().min(1, "enter your user name"),
@@ -22,7 +25,10 @@ export const SignInSchema = z.object({
 export type SignInInput = z.infer<typeof SignInSchema>;
 
 export const ChangePasswordSchema = z
-  .object({ currentPassword: z.string().min(1, "enter your current password"), newPassword: NewPasswordSchema })
+  .object({
+    currentPassword: z.string().min(1, "enter your current password"),
+    newPassword: NewPasswordSchema,
+  })
   .refine((v) => v.currentPassword !== v.newPassword, {
     path: ["newPassword"],
     message: "must differ from the current password",

@@ -40,8 +40,12 @@ export const UploadedFirSourceSchema = z.object({
   kind: z.literal("upload"),
   uploadId: z.number().int().positive(),
   sampleRateHz: positiveHz,
-  passbands: z.array(z.tuple([z.number().finite(), z.number().finite()])).min(1, "give at least one passband"),
-  stopbands: z.array(z.tuple([z.number().finite(), z.number().finite()])).min(1, "give at least one stopband"),
+  passbands: z
+    .array(z.tuple([z.number().finite(), z.number().finite()]))
+    .min(1, "give at least one passband"),
+  stopbands: z
+    .array(z.tuple([z.number().finite(), z.number().finite()]))
+    .min(1, "give at least one stopband"),
 });
 
 /** Generator sources for a waveform's transmit table (everything except explicit samples, which come by upload). */
@@ -51,7 +55,10 @@ export const AuthoredWaveformSourceSchema = z.discriminatedUnion("kind", [
   WaveformSourceSchema.options[2],
   UploadedWaveformSourceSchema,
 ]);
-export const AuthoredFirSourceSchema = z.discriminatedUnion("kind", [FirSourceSchema.options[0], UploadedFirSourceSchema]);
+export const AuthoredFirSourceSchema = z.discriminatedUnion("kind", [
+  FirSourceSchema.options[0],
+  UploadedFirSourceSchema,
+]);
 
 const analysisOptions = {
   interpolation: z.number().int().min(1).max(16).default(8),
@@ -64,7 +71,9 @@ const analysisOptions = {
 export const WaveformContentSchema = z.object({
   kind: z.literal("waveform"),
   tx: AuthoredWaveformSourceSchema,
-  rx: z.object({ window: WindowSpecSchema.default({ kind: "rectangular" }) }).default({ window: { kind: "rectangular" } }),
+  rx: z
+    .object({ window: WindowSpecSchema.default({ kind: "rectangular" }) })
+    .default({ window: { kind: "rectangular" } }),
   fixedPoint: z.object({ tx: FixedPointSpecSchema, rx: FixedPointSpecSchema }),
   dopplerHz: z.number().finite().optional(),
   ...analysisOptions,
@@ -77,19 +86,21 @@ export const FilterContentSchema = z.object({
   responsePoints: z.number().int().min(8192).max(1_048_576).default(8192),
   ...analysisOptions,
 });
-export const RevisionContentSchema = z.discriminatedUnion("kind", [WaveformContentSchema, FilterContentSchema]);
+export const RevisionContentSchema = z.discriminatedUnion("kind", [
+  WaveformContentSchema,
+  FilterContentSchema,
+]);
 export type RevisionContent = z.infer<typeof RevisionContentSchema>;
 export type RevisionContentInput = z.input<typeof RevisionContentSchema>;
 
 export const DesignNameSchema = z.string().trim().min(1, "enter a name").max(120, "at most 120 characters");
 
 /** POST /api/projects/:projectId/designs */
-export const CreateDesignSchema = z
-  .object({
-    name: DesignNameSchema,
-    description: z.string().trim().max(4000, "at most 4000 characters").default(""),
-    content: RevisionContentSchema,
-  });
+export const CreateDesignSchema = z.object({
+  name: DesignNameSchema,
+  description: z.string().trim().max(4000, "at most 4000 characters").default(""),
+  content: RevisionContentSchema,
+});
 export type CreateDesignInput = z.input<typeof CreateDesignSchema>;
 
 /** PATCH /api/revisions/:id (drafts only). */

@@ -5,7 +5,9 @@
 import { z } from "zod";
 
 /** GET /api/releases/:id/diff?against=:otherId */
-export const ReleaseDiffQuerySchema = z.object({ against: z.coerce.number().int().positive("must be a release id") });
+export const ReleaseDiffQuerySchema = z.object({
+  against: z.coerce.number().int().positive("must be a release id"),
+});
 
 /** One side of the comparison. */
 export const DiffSideSchema = z.object({

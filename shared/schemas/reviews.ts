@@ -52,7 +52,11 @@ export const ReviewSchema = z.object({
 export type Review = z.infer<typeof ReviewSchema>;
 
 /** A limit that the report fails (name as in the report, e.g. "pslDb"). */
-export const FailingLimitSchema = z.object({ name: z.string(), limit: z.number(), value: z.number().nullable() });
+export const FailingLimitSchema = z.object({
+  name: z.string(),
+  limit: z.number(),
+  value: z.number().nullable(),
+});
 export type FailingLimit = z.infer<typeof FailingLimitSchema>;
 
 /** The report figures a reviewer compares: float/fixed/diff figures, limits, overall pass. */
@@ -63,7 +67,9 @@ export const ReportSummarySchema = z.object({
   fixed: z.record(z.string(), z.number().nullable()),
   float: z.record(z.string(), z.number().nullable()),
   diff: z.record(z.string(), z.number().nullable()),
-  limits: z.array(z.object({ name: z.string(), limit: z.number(), value: z.number().nullable(), pass: z.boolean() })),
+  limits: z.array(
+    z.object({ name: z.string(), limit: z.number(), value: z.number().nullable(), pass: z.boolean() }),
+  ),
   finishedAt: z.string().nullable(),
 });
 export type ReportSummary = z.infer<typeof ReportSummarySchema>;

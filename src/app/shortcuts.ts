@@ -18,7 +18,8 @@ export function useGlobalShortcuts(): void {
   useEffect(() => {
     let chordUntil = 0;
     const onKey = (e: KeyboardEvent) => {
-      if (e.ctrlKey || e.metaKey || e.altKey || isTyping(e.target) || document.querySelector("dialog[open]")) return;
+      if (e.ctrlKey || e.metaKey || e.altKey || isTyping(e.target) || document.querySelector("dialog[open]"))
+        return;
       if (e.key === "/") {
         const search = document.querySelector<HTMLInputElement>("[data-page-search]");
         if (search) {

@@ -41,12 +41,17 @@ export function UserMenu({ user }: { user: SessionUser }) {
         onClick={() => setOpen((o) => !o)}
         className="flex w-full items-center gap-2.5 rounded px-2 py-1.5 text-left hover:bg-ink-800"
       >
-        <span aria-hidden="true" className="flex h-7 w-7 shrink-0 items-center justify-center rounded-full bg-copper-300 text-xs font-semibold text-ink-950">
+        <span
+          aria-hidden="true"
+          className="flex h-7 w-7 shrink-0 items-center justify-center rounded-full bg-copper-300 text-xs font-semibold text-ink-950"
+        >
           {initials}
         </span>
         <span className="min-w-0">
           <span className="block truncate text-sm font-medium text-ink-50">{user.displayName}</span>
-          <span className="block truncate text-xs text-ink-300">{user.roles.map((r) => ROLE_LABELS[r]).join(" · ")}</span>
+          <span className="block truncate text-xs text-ink-300">
+            {user.roles.map((r) => ROLE_LABELS[r]).join(" · ")}
+          </span>
         </span>
       </button>
       {open && (
@@ -58,7 +63,12 @@ export function UserMenu({ user }: { user: SessionUser }) {
           <div className="border-b border-paper-200 px-3 py-1.5 text-xs text-ink-600">
             Signed in as <span className="font-mono text-ink-800">{user.username}</span>
           </div>
-          <Link role="menuitem" to="/account" onClick={() => setOpen(false)} className="block px-3 py-1.5 hover:bg-paper-200">
+          <Link
+            role="menuitem"
+            to="/account"
+            onClick={() => setOpen(false)}
+            className="block px-3 py-1.5 hover:bg-paper-200"
+          >
             Account
           </Link>
           <button
@@ -70,7 +80,10 @@ export function UserMenu({ user }: { user: SessionUser }) {
                 onSettled: () => navigate("/sign-in", { replace: true }),
               })
             }
-            className={cn("block w-full px-3 py-1.5 text-left hover:bg-paper-200", signOut.isPending && "opacity-60")}
+            className={cn(
+              "block w-full px-3 py-1.5 text-left hover:bg-paper-200",
+              signOut.isPending && "opacity-60",
+            )}
           >
             Sign out
           </button>

@@ -55,7 +55,10 @@ export async function api<S extends z.ZodType | undefined = undefined>(
     res = await fetch(`/api${path}`, {
       method,
       credentials: "same-origin",
-      headers: body === undefined ? { Accept: "application/json" } : { Accept: "application/json", "Content-Type": "application/json" },
+      headers:
+        body === undefined
+          ? { Accept: "application/json" }
+          : { Accept: "application/json", "Content-Type": "application/json" },
       body: body === undefined ? undefined : JSON.stringify(body),
       signal,
     });
@@ -76,7 +79,12 @@ export async function api<S extends z.ZodType | undefined = undefined>(
   const parsed = schema.safeParse(json);
   if (!parsed.success) {
     // A contract mismatch is a bug on one side: say where, rather than render half-valid data.
-    throw new ApiError(res.status, "bad_response", `Unexpected answer from ${method} /api${path}`, parsed.error.issues);
+    throw new ApiError(
+      res.status,
+      "bad_response",
+      `Unexpected answer from ${method} /api${path}`,
+      parsed.error.issues,
+    );
   }
   return parsed.data as Result<S>;
 }

@@ -58,12 +58,16 @@ export async function tableValues(agent: Agent, revisionId: number, tableId: num
 export function expectSameBits(actual: ArrayLike<number>, expected: ArrayLike<number>, what: string): void {
   expect(actual.length, `${what} length`).toBe(expected.length);
   for (let i = 0; i < expected.length; i++) {
-    if (!Object.is(actual[i], expected[i])) expect(`${what}[${i}] = ${actual[i]}`).toBe(`${what}[${i}] = ${expected[i]}`);
+    if (!Object.is(actual[i], expected[i]))
+      expect(`${what}[${i}] = ${actual[i]}`).toBe(`${what}[${i}] = ${expected[i]}`);
   }
 }
 
 /** Count rows of a table through the test's own connection pool. */
-export async function countRows(pool: { query(q: string): Promise<{ rows: { n: number }[] }> }, table: string) {
+export async function countRows(
+  pool: { query(q: string): Promise<{ rows: { n: number }[] }> },
+  table: string,
+) {
   const r = await pool.query(`select count(*)::int as n from ${table}`);
   return r.rows[0]!.n;
 }

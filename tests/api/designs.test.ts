@@ -1,7 +1,12 @@
 // Authoring API: designs created from every generator; the stored tables are checked bit for bit against
 // the DSP core's generators, and the receive table against h[n] = w[n]·conj(s[N−1−n]) computed here.
 import { describe, expect, it } from "vitest";
-import { CreatedDesignSchema, DesignDetailSchema, DesignListSchema, RevisionDetailSchema } from "../../shared/schemas/designs";
+import {
+  CreatedDesignSchema,
+  DesignDetailSchema,
+  DesignListSchema,
+  RevisionDetailSchema,
+} from "../../shared/schemas/designs";
 import { designFir } from "../../shared/dsp/fir-design";
 import { linearFm } from "../../shared/dsp/lfm";
 import { nonlinearFm } from "../../shared/dsp/nlfm";
@@ -95,12 +100,10 @@ describe("create a waveform design from a generator", () => {
       output: "real",
       intermediateFrequencyHz: 5e6,
     } as const;
-    await checkWaveform(
-      author,
-      { kind: "waveform", tx, fixedPoint: { tx: Q15, rx: Q15 } },
-      linearFm(tx),
-      { complex: false, sampleRateHz: 20e6 },
-    );
+    await checkWaveform(author, { kind: "waveform", tx, fixedPoint: { tx: Q15, rx: Q15 } }, linearFm(tx), {
+      complex: false,
+      sampleRateHz: 20e6,
+    });
   });
 
   it("NLFM from a Taylor-shaped spectrum", async () => {
@@ -112,12 +115,10 @@ describe("create a waveform design from a generator", () => {
       sampleRateHz: 6.25e6,
       window: { kind: "taylor", nbar: 4, sidelobeDb: -30 },
     } as const;
-    await checkWaveform(
-      author,
-      { kind: "waveform", tx, fixedPoint: { tx: Q15, rx: Q15 } },
-      nonlinearFm(tx),
-      { complex: true, sampleRateHz: 6.25e6 },
-    );
+    await checkWaveform(author, { kind: "waveform", tx, fixedPoint: { tx: Q15, rx: Q15 } }, nonlinearFm(tx), {
+      complex: true,
+      sampleRateHz: 6.25e6,
+    });
   });
 
   const codes: [string, PhaseCodeSpec, number, boolean][] = [
@@ -144,11 +145,20 @@ describe("create a waveform design from a generator", () => {
 describe("create a filter design from the windowed-sinc designer", () => {
   const cases = [
     ["low-pass 10 MHz at 100 MHz, 5 MHz transition, 70 dB", { band: "lowpass", cutoffHz: 10e6 }],
-    ["band-pass 20–30 MHz at 100 MHz, 5 MHz transitions, 70 dB", { band: "bandpass", lowCutoffHz: 20e6, highCutoffHz: 30e6 }],
+    [
+      "band-pass 20–30 MHz at 100 MHz, 5 MHz transitions, 70 dB",
+      { band: "bandpass", lowCutoffHz: 20e6, highCutoffHz: 30e6 },
+    ],
   ] as const;
   it.each(cases)("%s", async (_name, band) => {
     const author = await signedIn(t.app, "author");
-    const fir = { kind: "design", sampleRateHz: 100e6, transitionHz: 5e6, stopbandAttenuationDb: 70, ...band } as const;
+    const fir = {
+      kind: "design",
+      sampleRateHz: 100e6,
+      transitionHz: 5e6,
+      stopbandAttenuationDb: 70,
+      ...band,
+    } as const;
     const { created, detail } = await create(author, { kind: "filter", fir, fixedPoint: { fir: Q15 } });
     expect(detail.design.kind).toBe("filter");
     expect(detail.tables.map((x) => x.role)).toEqual(["fir"]);
@@ -167,12 +177,20 @@ describe("designs in a project", () => {
   it("lists designs with their latest revision and shows one with its revisions", async () => {
     const author = await signedIn(t.app, "author");
     const tx = { kind: "phase-code", code: { kind: "barker", length: 7 }, sampleRateHz: 1e6 };
-    const { created } = await create(author, { kind: "waveform", tx, fixedPoint: { tx: Q15, rx: Q15 } }, "Barker-7 listing");
+    const { created } = await create(
+      author,
+      { kind: "waveform", tx, fixedPoint: { tx: Q15, rx: Q15 } },
+      "Barker-7 listing",
+    );
     const pid = await projectId(t.app, "coastwatch-s");
     const reviewer = await signedIn(t.app, "reviewer");
     const list = DesignListSchema.parse((await reviewer.get(`/api/projects/${pid}/designs`)).body);
     const mine = list.designs.find((d) => d.id === created.design.id);
-    expect(mine).toMatchObject({ name: "Barker-7 listing", kind: "waveform", owner: { displayName: "Ilse Marrow" } });
+    expect(mine).toMatchObject({
+      name: "Barker-7 listing",
+      kind: "waveform",
+      owner: { displayName: "Ilse Marrow" },
+    });
     expect(mine!.latestRevision).toMatchObject({ number: 1, state: "draft" });
     const names = list.designs.map((d) => d.name);
     expect(names).toEqual([...names].sort());
@@ -185,7 +203,18 @@ describe("designs in a project", () => {
 
   it("refuses a taken name with 409 and the name's path, writing nothing", async () => {
     const author = await signedIn(t.app, "author");
-    const content = { kind: "filter", fir: { kind: "design", band: "lowpass", sampleRateHz: 1e6, cutoffHz: 1e5, transitionHz: 5e4, stopbandAttenuationDb: 50 }, fixedPoint: { fir: Q15 } };
+    const content = {
+      kind: "filter",
+      fir: {
+        kind: "design",
+        band: "lowpass",
+        sampleRateHz: 1e6,
+        cutoffHz: 1e5,
+        transitionHz: 5e4,
+        stopbandAttenuationDb: 50,
+      },
+      fixedPoint: { fir: Q15 },
+    };
     await create(author, content, "Twice");
     const before = await countRows(t.database.pool, "revisions");
     const pid = await projectId(t.app, "coastwatch-s");
@@ -199,8 +228,12 @@ describe("designs in a project", () => {
     const author = await signedIn(t.app, "author");
     const pid = await projectId(t.app, "coastwatch-s");
     const before = await countRows(t.database.pool, "designs");
-    const missing = await author.post(`/api/projects/${pid}/designs`).send({ name: "", content: { kind: "waveform" } });
-    const paths = (expectError(missing, 400, "validation_failed").details as { path: unknown[] }[]).map((d) => d.path.join("."));
+    const missing = await author
+      .post(`/api/projects/${pid}/designs`)
+      .send({ name: "", content: { kind: "waveform" } });
+    const paths = (expectError(missing, 400, "validation_failed").details as { path: unknown[] }[]).map((d) =>
+      d.path.join("."),
+    );
     expect(paths).toContain("name");
     expect(paths).toContain("content.tx");
     // fs < B for a complex chirp: the DSP core refuses it (Nyquist for a complex signal).
@@ -209,18 +242,28 @@ describe("designs in a project", () => {
       .post(`/api/projects/${pid}/designs`)
       .send({ name: "Aliased", content: { kind: "waveform", tx, fixedPoint: { tx: Q15, rx: Q15 } } });
     const err = expectError(nyquist, 400, "validation_failed");
-    expect(err.details).toEqual([{ path: ["content", "tx"], message: expect.stringContaining("sampleRateHz") }]);
+    expect(err.details).toEqual([
+      { path: ["content", "tx"], message: expect.stringContaining("sampleRateHz") },
+    ]);
     expect(await countRows(t.database.pool, "designs")).toBe(before);
   });
 });
 
 describe("who may author", () => {
-  const content = { kind: "waveform", tx: { kind: "phase-code", code: { kind: "barker", length: 5 }, sampleRateHz: 1e6 }, fixedPoint: { tx: Q15, rx: Q15 } };
+  const content = {
+    kind: "waveform",
+    tx: { kind: "phase-code", code: { kind: "barker", length: 5 }, sampleRateHz: 1e6 },
+    fixedPoint: { tx: Q15, rx: Q15 },
+  };
 
   it.each(["firmware", "reviewer"])("%s gets 403 on create", async (role) => {
     const agent = await signedIn(t.app, role);
     const pid = await projectId(t.app, "coastwatch-s");
-    expectError(await agent.post(`/api/projects/${pid}/designs`).send({ name: `by ${role}`, content }), 403, "forbidden");
+    expectError(
+      await agent.post(`/api/projects/${pid}/designs`).send({ name: `by ${role}`, content }),
+      403,
+      "forbidden",
+    );
   });
 
   it("gives 404 to a user outside the project, for the project's designs and for a design's pages", async () => {
@@ -267,7 +310,9 @@ describe("demo designs", () => {
     for (const [name, role, length] of expected) {
       const d = byName.get(name);
       expect(d?.owner.displayName, name).toBe("Ilse Marrow");
-      const r = RevisionDetailSchema.parse((await author.get(`/api/revisions/${d!.latestRevision!.id}`)).body);
+      const r = RevisionDetailSchema.parse(
+        (await author.get(`/api/revisions/${d!.latestRevision!.id}`)).body,
+      );
       expect(r.tables.find((x) => x.role === role)?.length, name).toBe(length);
     }
     const fir = byName.get("4:1 decimation FIR");

@@ -34,7 +34,12 @@ export async function addUser(
   const email = `${username}@coastwatch.example`;
   const [u] = await db
     .insert(users)
-    .values({ username, displayName: `Test ${username}`, email, passwordHash: await bcrypt.hash(`tapwright-${username}`, 4) })
+    .values({
+      username,
+      displayName: `Test ${username}`,
+      email,
+      passwordHash: await bcrypt.hash(`tapwright-${username}`, 4),
+    })
     .returning({ id: users.id });
   if (!u) throw new Error("user insert returned no row");
   await db.insert(userRoles).values(roles.map((role) => ({ userId: u.id, role })));
@@ -54,7 +59,10 @@ export function finishAnalysis(database: Database, revisionId: number): Promise<
 let n = 0;
 /** A new Barker-13 design in coastwatch-s by `author`, with a finished report; returns ids. */
 export async function analysedDraft(t: ApiTestContext, author: Agent, content: object = barker13) {
-  const [p] = await t.database.db.select({ id: projects.id }).from(projects).where(eq(projects.slug, "coastwatch-s"));
+  const [p] = await t.database.db
+    .select({ id: projects.id })
+    .from(projects)
+    .where(eq(projects.slug, "coastwatch-s"));
   const res = await author
     .post(`/api/projects/${p!.id}/designs`)
     .send({ name: `lifecycle test ${process.pid}-${++n}`, content });
@@ -70,7 +78,8 @@ export function expectStatus(res: { status: number; body: unknown }, status: num
 }
 
 /** The states a fixture can be driven to (withdrawn = released, with its release withdrawn). */
-export type FixtureState = "draft" | "in_review" | "approved" | "changes_requested" | "released" | "withdrawn";
+export type FixtureState =
+  "draft" | "in_review" | "approved" | "changes_requested" | "released" | "withdrawn";
 
 /** Who does what when building fixtures. */
 export interface Cast {
@@ -93,13 +102,23 @@ export async function revisionIn(t: ApiTestContext, cast: Cast, state: FixtureSt
     expectStatus(res, 201, "request changes");
     return { ...ids, releaseId };
   }
-  expectStatus(await cast.reviewer.post(`/api/revisions/${revisionId}/decision`).send({ decision: "approved" }), 201, "approve");
+  expectStatus(
+    await cast.reviewer.post(`/api/revisions/${revisionId}/decision`).send({ decision: "approved" }),
+    201,
+    "approve",
+  );
   if (state === "approved") return { ...ids, releaseId };
-  const rel = await cast.submitter.post(`/api/revisions/${revisionId}/release`).send({ version, notes: "First issue." });
+  const rel = await cast.submitter
+    .post(`/api/revisions/${revisionId}/release`)
+    .send({ version, notes: "First issue." });
   expectStatus(rel, 201, "release");
   releaseId = ReleaseResponseSchema.parse(rel.body).release.id;
   if (state === "withdrawn")
-    expectStatus(await cast.submitter.post(`/api/releases/${releaseId}/withdraw`).send({ reason: "Wrong scale." }), 200, "withdraw");
+    expectStatus(
+      await cast.submitter.post(`/api/releases/${releaseId}/withdraw`).send({ reason: "Wrong scale." }),
+      200,
+      "withdraw",
+    );
   return { ...ids, releaseId };
 }
 

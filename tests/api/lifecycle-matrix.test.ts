@@ -9,7 +9,14 @@ import { signedIn, useApiTestDatabase, type Agent } from "./helpers";
 
 const t = useApiTestDatabase();
 
-const STATES: FixtureState[] = ["draft", "in_review", "approved", "changes_requested", "released", "withdrawn"];
+const STATES: FixtureState[] = [
+  "draft",
+  "in_review",
+  "approved",
+  "changes_requested",
+  "released",
+  "withdrawn",
+];
 const ACTIONS = ["submit", "approve", "request_changes", "release", "withdraw", "comment"] as const;
 type Action = (typeof ACTIONS)[number];
 // `dual` (author + reviewer) submits every fixture, so it is the self-reviewer; `outsider` holds every
@@ -66,11 +73,15 @@ function act(agent: Agent, action: Action, f: Fixture, version = "1.0.0") {
     case "approve":
       return agent.post(`${rev}/decision`).send({ decision: "approved", comment: "" });
     case "request_changes":
-      return agent.post(`${rev}/decision`).send({ decision: "changes_requested", comment: "Please widen the Taylor n̄." });
+      return agent
+        .post(`${rev}/decision`)
+        .send({ decision: "changes_requested", comment: "Please widen the Taylor n̄." });
     case "release":
       return agent.post(`${rev}/release`).send({ version, notes: "Matrix release." });
     case "withdraw":
-      return agent.post(`/api/releases/${f.releaseId ?? 2_000_000_000}/withdraw`).send({ reason: "Matrix withdrawal." });
+      return agent
+        .post(`/api/releases/${f.releaseId ?? 2_000_000_000}/withdraw`)
+        .send({ reason: "Matrix withdrawal." });
     case "comment":
       return agent.post(`${rev}/comments`).send({ body: "Looks right to me." });
   }
@@ -89,7 +100,9 @@ beforeAll(async () => {
 }, 120_000);
 
 const cells = STATES.flatMap((state) =>
-  ACTIONS.flatMap((action) => USERS.map((user) => ({ state, action, user, status: expected(state, action, user) }))),
+  ACTIONS.flatMap((action) =>
+    USERS.map((user) => ({ state, action, user, status: expected(state, action, user) })),
+  ),
 );
 
 describe("refused cells leave the revision as it was", () => {
@@ -97,10 +110,14 @@ describe("refused cells leave the revision as it was", () => {
   it.each(refused)("$state × $action × $user → $status", async ({ state, action, user, status }) => {
     const f = shared.get(state)!;
     const agent = agents.get(user)!;
-    const before = await t.database.pool.query("select state, content_hash from revisions where id = $1", [f.revisionId]);
+    const before = await t.database.pool.query("select state, content_hash from revisions where id = $1", [
+      f.revisionId,
+    ]);
     const res = await act(agent, action, f);
     expectStatus(res, status, `${state} × ${action} × ${user}`);
-    const after = await t.database.pool.query("select state, content_hash from revisions where id = $1", [f.revisionId]);
+    const after = await t.database.pool.query("select state, content_hash from revisions where id = $1", [
+      f.revisionId,
+    ]);
     expect(after.rows).toEqual(before.rows);
   });
   it("covers every refusal status the rules name", () => {
@@ -119,14 +136,21 @@ describe("allowed cells succeed and move the revision", () => {
     withdraw: "released",
     comment: null,
   };
-  it.each(allowed)("$state × $action × $user → $status", async ({ state, action, user, status }) => {
-    const cast = { submitter: agents.get("dual")!, reviewer: agents.get("reviewer")! };
-    const f = stateChanging(action) ? await revisionIn(t, cast, state) : shared.get(state)!;
-    const res = await act(agents.get(user)!, action, f);
-    expectStatus(res, status, `${state} × ${action} × ${user}`);
-    const after = await t.database.pool.query<{ state: string }>("select state from revisions where id = $1", [f.revisionId]);
-    expect(after.rows[0]!.state).toBe(NEXT[action] ?? (state === "withdrawn" ? "released" : state));
-  }, 60_000);
+  it.each(allowed)(
+    "$state × $action × $user → $status",
+    async ({ state, action, user, status }) => {
+      const cast = { submitter: agents.get("dual")!, reviewer: agents.get("reviewer")! };
+      const f = stateChanging(action) ? await revisionIn(t, cast, state) : shared.get(state)!;
+      const res = await act(agents.get(user)!, action, f);
+      expectStatus(res, status, `${state} × ${action} × ${user}`);
+      const after = await t.database.pool.query<{ state: string }>(
+        "select state from revisions where id = $1",
+        [f.revisionId],
+      );
+      expect(after.rows[0]!.state).toBe(NEXT[action] ?? (state === "withdrawn" ? "released" : state));
+    },
+    60_000,
+  );
   it("has the expected number of allowed cells", () => {
     // submit 2 (author, dual); approve 1 and request changes 1 (reviewer); release 2; withdraw 3 (author, admin, dual);
     // comment in 5 states by author, reviewer, admin, dual = 20.

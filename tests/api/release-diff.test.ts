@@ -14,7 +14,11 @@ import { expectError, signedIn, useApiTestDatabase, type Agent } from "./helpers
 
 const t = useApiTestDatabase();
 
-const spec = (wordLength: number, fractionLength: number, extra: Partial<FixedPointSpec> = {}): FixedPointSpec => ({
+const spec = (
+  wordLength: number,
+  fractionLength: number,
+  extra: Partial<FixedPointSpec> = {},
+): FixedPointSpec => ({
   wordLength,
   fractionLength,
   signed: true,
@@ -23,14 +27,24 @@ const spec = (wordLength: number, fractionLength: number, extra: Partial<FixedPo
   overflow: "saturate",
   ...extra,
 });
-const signal = (re: number[], im = re.map(() => 0)) => ({ re: Float64Array.from(re), im: Float64Array.from(im) });
+const signal = (re: number[], im = re.map(() => 0)) => ({
+  re: Float64Array.from(re),
+  im: Float64Array.from(im),
+});
 
 describe("tableChange (pure)", () => {
   it("same format: the largest |code difference|, I and Q counted separately", () => {
     // as-given at F = 3: codes are x·8 exactly (hand-computed): [8, −4, 2] vs [8, −1, 2], Q [0, 3, 0] vs [0, 3, 1].
     const a = quantize(signal([1, -0.5, 0.25], [0, 0.375, 0]), spec(8, 3));
     const b = quantize(signal([1, -0.125, 0.25], [0, 0.375, 0.125]), spec(8, 3));
-    expect(tableChange("rx", a, b)).toEqual({ table: "rx", lengthFrom: 3, lengthTo: 3, changedWords: 2, maxChangeLsb: 3, atIndex: 1 });
+    expect(tableChange("rx", a, b)).toEqual({
+      table: "rx",
+      lengthFrom: 3,
+      lengthTo: 3,
+      changedWords: 2,
+      maxChangeLsb: 3,
+      atIndex: 1,
+    });
   });
 
   it("a wider fraction: the old words are rescaled into the new LSB before comparing", () => {
@@ -43,7 +57,14 @@ describe("tableChange (pure)", () => {
 
   it("a table on one side only has no figures", () => {
     const a = quantize(signal([0.5]), spec(8, 3));
-    expect(tableChange("tx", a, undefined)).toEqual({ table: "tx", lengthFrom: 1, lengthTo: null, changedWords: null, maxChangeLsb: null, atIndex: null });
+    expect(tableChange("tx", a, undefined)).toEqual({
+      table: "tx",
+      lengthFrom: 1,
+      lengthTo: null,
+      changedWords: null,
+      maxChangeLsb: null,
+      atIndex: null,
+    });
   });
 });
 
@@ -63,12 +84,21 @@ describe("GET /api/releases/:id/diff", () => {
     const r2 = await author.post(`/api/designs/${r.designId}/revisions`);
     expectStatus(r2, 201, "new revision");
     const r2Id = (r2.body as { revision: { id: number } }).revision.id;
-    const content = { ...barker13, fixedPoint: { tx: { wordLength: 16, fractionLength: 15 }, rx: { wordLength: 12, fractionLength: 11 } } };
+    const content = {
+      ...barker13,
+      fixedPoint: { tx: { wordLength: 16, fractionLength: 15 }, rx: { wordLength: 12, fractionLength: 11 } },
+    };
     expectStatus(await author.patch(`/api/revisions/${r2Id}`).send({ content }), 200, "edit");
     await finishAnalysis(t.database, r2Id);
     expectStatus(await author.post(`/api/revisions/${r2Id}/submit`), 200, "submit");
-    expectStatus(await r.reviewer.post(`/api/revisions/${r2Id}/decision`).send({ decision: "approved" }), 201, "approve");
-    const rel = await author.post(`/api/revisions/${r2Id}/release`).send({ version: "1.1.0", notes: "Receive words narrowed to 12 bits." });
+    expectStatus(
+      await r.reviewer.post(`/api/revisions/${r2Id}/decision`).send({ decision: "approved" }),
+      201,
+      "approve",
+    );
+    const rel = await author
+      .post(`/api/revisions/${r2Id}/release`)
+      .send({ version: "1.1.0", notes: "Receive words narrowed to 12 bits." });
     expectStatus(rel, 201, "release 1.1.0");
     second = ReleaseResponseSchema.parse(rel.body).release;
     const res = await firmware.get(`/api/releases/${second.id}/diff?against=${first.id}`);
@@ -77,8 +107,18 @@ describe("GET /api/releases/:id/diff", () => {
   }, 120_000);
 
   it("names both sides and lists exactly the rx spec fields and gain that changed", () => {
-    expect(diff.from).toMatchObject({ id: first.id, version: "1.0.0", revisionNumber: 1, contentHash: first.contentHash });
-    expect(diff.to).toMatchObject({ id: second.id, version: "1.1.0", revisionNumber: 2, contentHash: second.contentHash });
+    expect(diff.from).toMatchObject({
+      id: first.id,
+      version: "1.0.0",
+      revisionNumber: 1,
+      contentHash: first.contentHash,
+    });
+    expect(diff.to).toMatchObject({
+      id: second.id,
+      version: "1.1.0",
+      revisionNumber: 2,
+      contentHash: second.contentHash,
+    });
     expect(diff.sameContent).toBe(false);
     expect(diff.kind).toBe("waveform");
     // Full-scale gain maps the peak 1 to the largest code: (2^(W−1) − 1)/2^(W−1) at F = W − 1 (derived).
@@ -94,8 +134,22 @@ describe("GET /api/releases/:id/diff", () => {
     // 1 − 2^−4 = 0.9375 LSB of Q1.11, on all 13 taps (real table: Q words are 0 on both sides).
     const rx = diff.tables.find((x) => x.table === "rx");
     const tx = diff.tables.find((x) => x.table === "tx");
-    expect(rx).toEqual({ table: "rx", lengthFrom: 13, lengthTo: 13, changedWords: 13, maxChangeLsb: 0.9375, atIndex: 0 });
-    expect(tx).toEqual({ table: "tx", lengthFrom: 13, lengthTo: 13, changedWords: 0, maxChangeLsb: 0, atIndex: null });
+    expect(rx).toEqual({
+      table: "rx",
+      lengthFrom: 13,
+      lengthTo: 13,
+      changedWords: 13,
+      maxChangeLsb: 0.9375,
+      atIndex: 0,
+    });
+    expect(tx).toEqual({
+      table: "tx",
+      lengthFrom: 13,
+      lengthTo: 13,
+      changedWords: 0,
+      maxChangeLsb: 0,
+      atIndex: null,
+    });
   });
 
   it("the LSB figures agree with the released CSV files, recomputed with exact decimals", async () => {
@@ -109,7 +163,9 @@ describe("GET /api/releases/:id/diff", () => {
           const manifest = JSON.parse(u.read("manifest.json").toString("utf8")) as {
             tables: { role: string; exports: { template: string; path: string }[] }[];
           };
-          const file = manifest.tables.find((x) => x.role === role)!.exports.find((e) => e.template === "csv")!.path;
+          const file = manifest.tables
+            .find((x) => x.role === role)!
+            .exports.find((e) => e.template === "csv")!.path;
           const csv = u.read(file).toString("utf8").trim().split("\n").slice(1);
           // Complex-capable header: index,i_code,i_exact,i_float,q_code,q_exact,q_float, or index,code,exact,float.
           return csv.map((line) => {
@@ -121,7 +177,11 @@ describe("GET /api/releases/:id/diff", () => {
         const rb = rows(ub);
         const fTo = role === "rx" ? 11 : 15;
         let max = new Decimal(0);
-        ra.forEach((wa, i) => wa.forEach((v, k) => (max = Decimal.max(max, rb[i]![k]!.minus(v).abs().times(new Decimal(2).pow(fTo))))));
+        ra.forEach((wa, i) =>
+          wa.forEach(
+            (v, k) => (max = Decimal.max(max, rb[i]![k]!.minus(v).abs().times(new Decimal(2).pow(fTo)))),
+          ),
+        );
         expect(diff.tables.find((x) => x.table === role)!.maxChangeLsb, role).toBe(max.toNumber());
       }
     } finally {
@@ -166,14 +226,22 @@ describe("GET /api/releases/:id/diff", () => {
 
   it("refuses other designs (400), strangers (404), a bad id (400) and no session (401)", async () => {
     const other = await releasedDesign(t, barker13, "1.0.0");
-    const err = expectError(await firmware.get(`/api/releases/${second.id}/diff?against=${other.release.id}`), 400, "bad_request");
+    const err = expectError(
+      await firmware.get(`/api/releases/${second.id}/diff?against=${other.release.id}`),
+      400,
+      "bad_request",
+    );
     expect(err.details).toMatchObject({ reason: "different_design" });
     await addUser(t.database, "diff-outsider", ["firmware"], ["harbour-lidar-trials"]);
     const outsider = await signedIn(t.app, "diff-outsider");
     expectError(await outsider.get(`/api/releases/${second.id}/diff?against=${first.id}`), 404, "not_found");
     expectError(await firmware.get(`/api/releases/${second.id}/diff?against=x`), 400, "validation_failed");
     expectError(await firmware.get(`/api/releases/${second.id}/diff`), 400, "validation_failed");
-    const anonymous = await (await import("supertest")).default(t.app).get(`/api/releases/${second.id}/diff?against=${first.id}`);
+    const anonymous = await (
+      await import("supertest")
+    )
+      .default(t.app)
+      .get(`/api/releases/${second.id}/diff?against=${first.id}`);
     expect(anonymous.status).toBe(401);
   }, 60_000);
 });

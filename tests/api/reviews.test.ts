@@ -64,13 +64,17 @@ async function deliver(): Promise<void> {
 describe("submit", () => {
   it("is refused (409 no_report) until the current content has a finished report, and nothing is written", async () => {
     const pid = (await q<{ id: number }>("select id from projects where slug = 'coastwatch-s'"))[0]!.id;
-    const res = await author.post(`/api/projects/${pid}/designs`).send({ name: "unanalysed", content: barker13 });
+    const res = await author
+      .post(`/api/projects/${pid}/designs`)
+      .send({ name: "unanalysed", content: barker13 });
     expectStatus(res, 201);
     const id = (res.body as { revision: { id: number } }).revision.id;
     const audits = (await q("select id from audit_events where action = 'revision.submit'")).length;
     const err = expectError(await author.post(`/api/revisions/${id}/submit`), 409, "conflict");
     expect(err.details).toMatchObject({ reason: "no_report" });
-    expect((await q<{ state: string }>("select state from revisions where id = $1", [id]))[0]!.state).toBe("draft");
+    expect((await q<{ state: string }>("select state from revisions where id = $1", [id]))[0]!.state).toBe(
+      "draft",
+    );
     expect(await q("select id from audit_events where action = 'revision.submit'")).toHaveLength(audits);
   });
 });
@@ -83,13 +87,20 @@ describe("a review from submission to approval", () => {
 
   it("submit: state, audit row, and 'submitted' mail to the project's reviewers but not the submitter", async () => {
     expectStatus(await dual.post(`/api/revisions/${revisionId}/submit`), 200);
-    const audit = await q("select action, subject_id, actor_user_id from audit_events where action = 'revision.submit' and subject_id = $1", [String(revisionId)]);
+    const audit = await q(
+      "select action, subject_id, actor_user_id from audit_events where action = 'revision.submit' and subject_id = $1",
+      [String(revisionId)],
+    );
     expect(audit).toHaveLength(1);
-    const mail = await q<{ to_addresses: string[]; template: string }>("select to_addresses, template from mail_outbox where template = 'submitted' order by id desc limit 1");
+    const mail = await q<{ to_addresses: string[]; template: string }>(
+      "select to_addresses, template from mail_outbox where template = 'submitted' order by id desc limit 1",
+    );
     // dual is also a reviewer, but nobody is asked to review their own submission.
     expect(mail[0]).toEqual({ to_addresses: [REVIEWER], template: "submitted" });
     await deliver();
-    const got = await q<{ envelope_to: string[]; subject: string }>("select envelope_to, subject from mail_sink_messages where subject like '%Review wanted%' order by id desc limit 1");
+    const got = await q<{ envelope_to: string[]; subject: string }>(
+      "select envelope_to, subject from mail_sink_messages where subject like '%Review wanted%' order by id desc limit 1",
+    );
     expect(got[0]!.envelope_to).toEqual([REVIEWER]);
     expect(got[0]!.subject).toMatch(/^\[coastwatch-s\] Review wanted: lifecycle test .* r1$/);
   });
@@ -119,32 +130,69 @@ describe("a review from submission to approval", () => {
     const res = await reviewer.post(`/api/revisions/${revisionId}/comments`).send({ body });
     expectStatus(res, 201);
     expect(res.body.comment.body).toBe(body);
-    expectStatus(await dual.post(`/api/revisions/${revisionId}/comments`).send({ body: "Accepted for the demo." }), 201);
-    expectError(await reviewer.post(`/api/revisions/${revisionId}/comments`).send({ body: "  " }), 400, "validation_failed");
+    expectStatus(
+      await dual.post(`/api/revisions/${revisionId}/comments`).send({ body: "Accepted for the demo." }),
+      201,
+    );
+    expectError(
+      await reviewer.post(`/api/revisions/${revisionId}/comments`).send({ body: "  " }),
+      400,
+      "validation_failed",
+    );
     const page = ReviewPageSchema.parse((await reviewer.get(`/api/revisions/${revisionId}/review`)).body);
     expect(page.comments.map((c) => c.body)).toEqual([body, "Accepted for the demo."]);
-    expect(await q("select id from audit_events where action = 'review.comment' and subject_id = $1", [String(revisionId)])).toHaveLength(2);
+    expect(
+      await q("select id from audit_events where action = 'review.comment' and subject_id = $1", [
+        String(revisionId),
+      ]),
+    ).toHaveLength(2);
   });
 
   it("self-review is refused; 'changes requested' needs a comment", async () => {
-    const self = expectError(await dual.post(`/api/revisions/${revisionId}/decision`).send({ decision: "approved" }), 403, "forbidden");
+    const self = expectError(
+      await dual.post(`/api/revisions/${revisionId}/decision`).send({ decision: "approved" }),
+      403,
+      "forbidden",
+    );
     expect(self.details).toMatchObject({ reason: "self_review" });
-    expectError(await reviewer.post(`/api/revisions/${revisionId}/decision`).send({ decision: "changes_requested", comment: " " }), 400, "validation_failed");
+    expectError(
+      await reviewer
+        .post(`/api/revisions/${revisionId}/decision`)
+        .send({ decision: "changes_requested", comment: " " }),
+      400,
+      "validation_failed",
+    );
   });
 
   it("approve binds the decision to the content hash and the report's SHA-256; audit and mail to the author", async () => {
-    const res = await reviewer.post(`/api/revisions/${revisionId}/decision`).send({ decision: "approved", comment: "Fine for the blind zone." });
+    const res = await reviewer
+      .post(`/api/revisions/${revisionId}/decision`)
+      .send({ decision: "approved", comment: "Fine for the blind zone." });
     expectStatus(res, 201);
     const body = TransitionResponseSchema.parse(res.body);
     expect(body.revision.state).toBe("approved");
-    const doc = (await reviewer.get(`/api/revisions/${revisionId}/report.json`)).body as { header: { contentHash: string }; report: unknown };
+    const doc = (await reviewer.get(`/api/revisions/${revisionId}/report.json`)).body as {
+      header: { contentHash: string };
+      report: unknown;
+    };
     expect(body.review!.contentHash).toBe(doc.header.contentHash);
-    expect(body.review!.reportHash).toBe(createHash("sha256").update(canonical(doc.report), "utf8").digest("hex"));
-    expect(await q("select id from audit_events where action = 'review.approve' and subject_id = $1", [String(revisionId)])).toHaveLength(1);
-    const mail = await q<{ to_addresses: string[] }>("select to_addresses from mail_outbox where template = 'approved' order by id desc limit 1");
+    expect(body.review!.reportHash).toBe(
+      createHash("sha256").update(canonical(doc.report), "utf8").digest("hex"),
+    );
+    expect(
+      await q("select id from audit_events where action = 'review.approve' and subject_id = $1", [
+        String(revisionId),
+      ]),
+    ).toHaveLength(1);
+    const mail = await q<{ to_addresses: string[] }>(
+      "select to_addresses from mail_outbox where template = 'approved' order by id desc limit 1",
+    );
     expect(mail[0]!.to_addresses).toEqual([dualEmail]);
     await deliver();
-    const got = await q<{ envelope_to: string[] }>("select envelope_to from mail_sink_messages where $1 = any(envelope_to) order by id desc limit 1", [dualEmail]);
+    const got = await q<{ envelope_to: string[] }>(
+      "select envelope_to from mail_sink_messages where $1 = any(envelope_to) order by id desc limit 1",
+      [dualEmail],
+    );
     expect(got[0]!.envelope_to).toEqual([dualEmail]);
     const page = ReviewPageSchema.parse((await dual.get(`/api/revisions/${revisionId}/review`)).body);
     expect(page.decisions.map((d) => d.decision)).toEqual(["approved"]);
@@ -153,8 +201,12 @@ describe("a review from submission to approval", () => {
   });
 
   it("decisions and comments cannot be changed or deleted, even by SQL through the app's role", async () => {
-    await expect(q("update reviews set comment = 'edited' where revision_id = $1", [revisionId])).rejects.toThrow(/append-only/);
-    await expect(q("delete from review_comments where revision_id = $1", [revisionId])).rejects.toThrow(/append-only/);
+    await expect(
+      q("update reviews set comment = 'edited' where revision_id = $1", [revisionId]),
+    ).rejects.toThrow(/append-only/);
+    await expect(q("delete from review_comments where revision_id = $1", [revisionId])).rejects.toThrow(
+      /append-only/,
+    );
   });
 });
 
@@ -162,9 +214,20 @@ describe("changes requested", () => {
   it("mails the author the comment, audits, and the author can start r2 from it", async () => {
     const { revisionId, designId } = await revisionIn(t, { submitter: author, reviewer }, "in_review");
     const comment = "Use W = 14 on receive.";
-    expectStatus(await reviewer.post(`/api/revisions/${revisionId}/decision`).send({ decision: "changes_requested", comment }), 201);
-    expect(await q("select id from audit_events where action = 'review.request-changes' and subject_id = $1", [String(revisionId)])).toHaveLength(1);
-    const mail = await q<{ to_addresses: string[]; text: string }>("select to_addresses, text from mail_outbox where template = 'changes-requested' order by id desc limit 1");
+    expectStatus(
+      await reviewer
+        .post(`/api/revisions/${revisionId}/decision`)
+        .send({ decision: "changes_requested", comment }),
+      201,
+    );
+    expect(
+      await q("select id from audit_events where action = 'review.request-changes' and subject_id = $1", [
+        String(revisionId),
+      ]),
+    ).toHaveLength(1);
+    const mail = await q<{ to_addresses: string[]; text: string }>(
+      "select to_addresses, text from mail_outbox where template = 'changes-requested' order by id desc limit 1",
+    );
     expect(mail[0]!.to_addresses).toEqual(["ilse.marrow@coastwatch.example"]);
     expect(mail[0]!.text).toContain(comment);
     expectStatus(await author.post(`/api/designs/${designId}/revisions`), 201);

@@ -20,11 +20,14 @@ const barker = (length: number) => ({
 let n = 0;
 async function newDesign(agent: Agent, content: Record<string, unknown> = barker(13)) {
   const pid = await projectId(t.app, "coastwatch-s");
-  const res = await agent.post(`/api/projects/${pid}/designs`).send({ name: `revision test ${++n}`, content });
+  const res = await agent
+    .post(`/api/projects/${pid}/designs`)
+    .send({ name: `revision test ${++n}`, content });
   expect(res.status, JSON.stringify(res.body)).toBe(201);
   return CreatedDesignSchema.parse(res.body);
 }
-const detail = async (agent: Agent, id: number) => RevisionDetailSchema.parse((await agent.get(`/api/revisions/${id}`)).body);
+const detail = async (agent: Agent, id: number) =>
+  RevisionDetailSchema.parse((await agent.get(`/api/revisions/${id}`)).body);
 async function submit(agent: Agent, id: number) {
   // Submitting needs a finished report for the current content (issue 6): run the real analysis in-process first.
   await finishAnalysis(t.database, id);
@@ -53,18 +56,38 @@ describe("editing a draft", () => {
     const res = await author.patch(`/api/revisions/${revision.id}`).send({ content: barker(11) });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     const after = RevisionDetailSchema.parse(res.body);
-    expect(after.tables.map((x) => [x.role, x.length])).toEqual([["tx", 11], ["rx", 11]]);
+    expect(after.tables.map((x) => [x.role, x.length])).toEqual([
+      ["tx", 11],
+      ["rx", 11],
+    ]);
     expect(after.content).toMatchObject({ tx: { code: { length: 11 } } });
   });
 
   it("refuses to change a design's kind, and bad content, with paths", async () => {
     const author = await signedIn(t.app, "author");
     const { revision } = await newDesign(author);
-    const fir = { kind: "design", band: "lowpass", sampleRateHz: 1e6, cutoffHz: 1e5, transitionHz: 5e4, stopbandAttenuationDb: 50 };
-    const kind = await author.patch(`/api/revisions/${revision.id}`).send({ content: { kind: "filter", fir, fixedPoint: { fir: Q15 } } });
-    expect(expectError(kind, 400, "validation_failed").details).toEqual([{ path: ["content", "kind"], message: "this design is a waveform" }]);
-    const bad = await author.patch(`/api/revisions/${revision.id}`).send({ content: { ...barker(13), fixedPoint: { tx: { wordLength: 40, fractionLength: 0 }, rx: Q15 } } });
-    const paths = (expectError(bad, 400, "validation_failed").details as { path: unknown[] }[]).map((d) => d.path.join("."));
+    const fir = {
+      kind: "design",
+      band: "lowpass",
+      sampleRateHz: 1e6,
+      cutoffHz: 1e5,
+      transitionHz: 5e4,
+      stopbandAttenuationDb: 50,
+    };
+    const kind = await author
+      .patch(`/api/revisions/${revision.id}`)
+      .send({ content: { kind: "filter", fir, fixedPoint: { fir: Q15 } } });
+    expect(expectError(kind, 400, "validation_failed").details).toEqual([
+      { path: ["content", "kind"], message: "this design is a waveform" },
+    ]);
+    const bad = await author
+      .patch(`/api/revisions/${revision.id}`)
+      .send({
+        content: { ...barker(13), fixedPoint: { tx: { wordLength: 40, fractionLength: 0 }, rx: Q15 } },
+      });
+    const paths = (expectError(bad, 400, "validation_failed").details as { path: unknown[] }[]).map((d) =>
+      d.path.join("."),
+    );
     expect(paths).toEqual(["content.fixedPoint.tx.wordLength"]);
   });
 
@@ -72,7 +95,11 @@ describe("editing a draft", () => {
     const author = await signedIn(t.app, "author");
     const { design, revision } = await newDesign(author);
     const agent = await signedIn(t.app, role);
-    expectError(await agent.patch(`/api/revisions/${revision.id}`).send({ content: barker(7) }), 403, "forbidden");
+    expectError(
+      await agent.patch(`/api/revisions/${revision.id}`).send({ content: barker(7) }),
+      403,
+      "forbidden",
+    );
     expectError(await agent.post(`/api/revisions/${revision.id}/submit`), 403, "forbidden");
     expectError(await agent.post(`/api/designs/${design.id}/revisions`), 403, "forbidden");
     expect((await detail(agent, revision.id)).canEdit).toBe(false);
@@ -90,7 +117,12 @@ describe("submission freezes a revision", () => {
     expect(sub.canEdit).toBe(false);
     const text = canonical({
       content: draft.content,
-      tables: draft.tables.map((x) => ({ role: x.role, sampleRateHz: x.sampleRateHz, complex: x.complex, valuesSha256: x.valuesSha256 })),
+      tables: draft.tables.map((x) => ({
+        role: x.role,
+        sampleRateHz: x.sampleRateHz,
+        complex: x.complex,
+        valuesSha256: x.valuesSha256,
+      })),
     });
     expect(sub.revision.contentHash).toBe(createHash("sha256").update(text).digest("hex"));
     // Each table's hash is the SHA-256 of its downloaded bytes.
@@ -104,7 +136,11 @@ describe("submission freezes a revision", () => {
     const author = await signedIn(t.app, "author");
     const { revision } = await newDesign(author);
     await submit(author, revision.id);
-    const err = expectError(await author.patch(`/api/revisions/${revision.id}`).send({ content: barker(7) }), 409, "conflict");
+    const err = expectError(
+      await author.patch(`/api/revisions/${revision.id}`).send({ content: barker(7) }),
+      409,
+      "conflict",
+    );
     expect(err.message).toBe("r1 is in review and cannot change: start a new revision");
     expectError(await author.post(`/api/revisions/${revision.id}/submit`), 409, "conflict");
     expect((await detail(author, revision.id)).tables[0]!.length).toBe(13);
@@ -115,15 +151,31 @@ describe("submission freezes a revision", () => {
     const { revision } = await newDesign(author);
     await submit(author, revision.id);
     const pool = t.database.pool;
-    await expect(pool.query(`update revisions set content = '{}'::jsonb where id = $1`, [revision.id])).rejects.toThrow(/cannot change/);
-    await expect(pool.query(`update revisions set content_hash = 'x' where id = $1`, [revision.id])).rejects.toThrow(/cannot change/);
-    await expect(pool.query(`update revisions set state = 'draft' where id = $1`, [revision.id])).rejects.toThrow(/cannot change/);
-    await expect(pool.query(`delete from revisions where id = $1`, [revision.id])).rejects.toThrow(/cannot be deleted/);
-    await expect(pool.query(`update coefficient_tables set values = '\\x00'::bytea where revision_id = $1`, [revision.id])).rejects.toThrow(/cannot change/);
-    await expect(pool.query(`delete from coefficient_tables where revision_id = $1`, [revision.id])).rejects.toThrow(/cannot change/);
+    await expect(
+      pool.query(`update revisions set content = '{}'::jsonb where id = $1`, [revision.id]),
+    ).rejects.toThrow(/cannot change/);
+    await expect(
+      pool.query(`update revisions set content_hash = 'x' where id = $1`, [revision.id]),
+    ).rejects.toThrow(/cannot change/);
+    await expect(
+      pool.query(`update revisions set state = 'draft' where id = $1`, [revision.id]),
+    ).rejects.toThrow(/cannot change/);
+    await expect(pool.query(`delete from revisions where id = $1`, [revision.id])).rejects.toThrow(
+      /cannot be deleted/,
+    );
+    await expect(
+      pool.query(`update coefficient_tables set values = '\\x00'::bytea where revision_id = $1`, [
+        revision.id,
+      ]),
+    ).rejects.toThrow(/cannot change/);
+    await expect(
+      pool.query(`delete from coefficient_tables where revision_id = $1`, [revision.id]),
+    ).rejects.toThrow(/cannot change/);
     // A draft's tables may change (that is how PATCH works).
     const draft = await newDesign(author);
-    const r = await pool.query(`update coefficient_tables set position = position where revision_id = $1`, [draft.revision.id]);
+    const r = await pool.query(`update coefficient_tables set position = position where revision_id = $1`, [
+      draft.revision.id,
+    ]);
     expect(r.rowCount).toBe(2);
   });
 });
@@ -141,7 +193,10 @@ describe("new revisions", () => {
     expect(r2.tables.map(({ id: _id, ...x }) => x)).toEqual(first.tables.map(({ id: _id, ...x }) => x));
     const again = expectError(await author.post(`/api/designs/${design.id}/revisions`), 409, "conflict");
     expect(again.details).toEqual({ revisionId: r2.revision.id });
-    const designRes = (await author.get(`/api/designs/${design.id}`)).body as { revisions: { number: number }[]; design: { latestRevision: { number: number } } };
+    const designRes = (await author.get(`/api/designs/${design.id}`)).body as {
+      revisions: { number: number }[];
+      design: { latestRevision: { number: number } };
+    };
     expect(designRes.revisions.map((x) => x.number)).toEqual([2, 1]);
     expect(designRes.design.latestRevision.number).toBe(2);
   });
@@ -153,7 +208,11 @@ describe("content hash", () => {
     const pid = await projectId(t.app, "coastwatch-s");
     const up = async (text: string) =>
       UploadSchema.parse(
-        (await author.post(`/api/projects/${pid}/uploads`).attach("file", Buffer.from(text), { filename: "taps.txt" })).body.upload,
+        (
+          await author
+            .post(`/api/projects/${pid}/uploads`)
+            .attach("file", Buffer.from(text), { filename: "taps.txt" })
+        ).body.upload,
       ).id;
     const a = await up("0.5\n0.25\n0.125\n");
     const b = await up("0.5\n0.25\n0.125\n"); // same bytes, another upload

@@ -26,7 +26,10 @@ const revisionRows = () =>
   ).then((rows) => rows.sort(byDesignThenNumber));
 
 /** Sorted in JS, so the database's collation plays no part. */
-function byDesignThenNumber(a: { design: string; number: number }, b: { design: string; number: number }): number {
+function byDesignThenNumber(
+  a: { design: string; number: number },
+  b: { design: string; number: number },
+): number {
   return a.design === b.design ? a.number - b.number : a.design < b.design ? -1 : 1;
 }
 
@@ -68,7 +71,8 @@ describe("seedDemoLifecycle", () => {
         where v.decision = 'approved'`,
     );
     expect(approvals).toHaveLength(3);
-    for (const a of approvals) expect([a.reviewer, a.submitter, a.comment.length > 0]).toEqual(["reviewer", "author", true]);
+    for (const a of approvals)
+      expect([a.reviewer, a.submitter, a.comment.length > 0]).toEqual(["reviewer", "author", true]);
   });
 
   it("stores bundles whose SHA-256 and size match their bytes, also as downloaded", async () => {
@@ -81,13 +85,20 @@ describe("seedDemoLifecycle", () => {
       const sha = createHash("sha256").update(r.bundle).digest("hex");
       expect(sha).toBe(r.bundle_sha256);
       expect(r.bundle.byteLength).toBe(r.bundle_size);
-      const res = await firmware.get(`/api/releases/${r.id}/bundle`).buffer(true).parse((resp, done) => {
-        const chunks: Buffer[] = [];
-        resp.on("data", (c: Buffer) => chunks.push(c));
-        resp.on("end", () => done(null, Buffer.concat(chunks)));
-      });
+      const res = await firmware
+        .get(`/api/releases/${r.id}/bundle`)
+        .buffer(true)
+        .parse((resp, done) => {
+          const chunks: Buffer[] = [];
+          resp.on("data", (c: Buffer) => chunks.push(c));
+          resp.on("end", () => done(null, Buffer.concat(chunks)));
+        });
       expectStatus(res, 200, `bundle ${r.id}`);
-      expect(createHash("sha256").update(res.body as Buffer).digest("hex")).toBe(r.bundle_sha256);
+      expect(
+        createHash("sha256")
+          .update(res.body as Buffer)
+          .digest("hex"),
+      ).toBe(r.bundle_sha256);
     }
   });
 

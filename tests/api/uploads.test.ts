@@ -16,18 +16,48 @@ const BOM = Buffer.from([0xef, 0xbb, 0xbf]);
 
 async function upload(agent: Agent, fileName: string, bytes: Buffer, slug = "coastwatch-s") {
   const pid = await projectId(t.app, slug);
-  return agent.post(`/api/projects/${pid}/uploads`).attach("file", bytes, { filename: fileName, contentType: "text/plain" });
+  return agent
+    .post(`/api/projects/${pid}/uploads`)
+    .attach("file", bytes, { filename: fileName, contentType: "text/plain" });
 }
 
 // [file name, bytes, format, complex, re, im]
 const GOOD: [string, Buffer, string, boolean, number[], number[]][] = [
-  ["one-column.txt", Buffer.from("# tx taps\n0.5\n-0.25\n1e-3\n"), "text", false, [0.5, -0.25, 0.001], [0, 0, 0]],
-  ["two-columns.txt", Buffer.from("0.5 0.25\n-1 0\n0 -0.125\n"), "text", true, [0.5, -1, 0], [0.25, 0, -0.125]],
+  [
+    "one-column.txt",
+    Buffer.from("# tx taps\n0.5\n-0.25\n1e-3\n"),
+    "text",
+    false,
+    [0.5, -0.25, 0.001],
+    [0, 0, 0],
+  ],
+  [
+    "two-columns.txt",
+    Buffer.from("0.5 0.25\n-1 0\n0 -0.125\n"),
+    "text",
+    true,
+    [0.5, -1, 0],
+    [0.25, 0, -0.125],
+  ],
   ["with-header.csv", Buffer.from("i,q\n1,2\n3,4\n"), "csv", true, [1, 3], [2, 4]],
   ["no-header.csv", Buffer.from("1,2\n3,4\n"), "csv", true, [1, 3], [2, 4]],
-  ["index-and-header.csv", Buffer.from("n,re,im\n0,0.5,-0.5\n1,0.25,0.75\n"), "csv", true, [0.5, 0.25], [-0.5, 0.75]],
+  [
+    "index-and-header.csv",
+    Buffer.from("n,re,im\n0,0.5,-0.5\n1,0.25,0.75\n"),
+    "csv",
+    true,
+    [0.5, 0.25],
+    [-0.5, 0.75],
+  ],
   ["iq.tsv", Buffer.from("re\tim\n0.5\t-0.5\n0.25\t0.75\n"), "tsv", true, [0.5, 0.25], [-0.5, 0.75]],
-  ["complex.txt", Buffer.from("0.5+0.25j\n-1-2i\n(3+0j)\n"), "complex-text", true, [0.5, -1, 3], [0.25, -2, 0]],
+  [
+    "complex.txt",
+    Buffer.from("0.5+0.25j\n-1-2i\n(3+0j)\n"),
+    "complex-text",
+    true,
+    [0.5, -1, 3],
+    [0.25, -2, 0],
+  ],
   ["array.json", Buffer.from("[0.5, -0.5, 0.25]"), "json", false, [0.5, -0.5, 0.25], [0, 0, 0]],
   ["pairs.json", Buffer.from("[[1, 2], [3, 4]]"), "json", true, [1, 3], [2, 4]],
   ["objects.json", Buffer.from('[{"re": 1, "im": 2}, {"re": 3, "im": 4}]'), "json", true, [1, 3], [2, 4]],
@@ -42,22 +72,40 @@ describe("uploads of every supported format", () => {
     const res = await upload(author, fileName, bytes);
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     const u = UploadSchema.parse(res.body.upload);
-    expect(u).toMatchObject({ fileName, format, complex, count: re.length, sizeBytes: bytes.length, sha256: sha256(bytes) });
+    expect(u).toMatchObject({
+      fileName,
+      format,
+      complex,
+      count: re.length,
+      sizeBytes: bytes.length,
+      sha256: sha256(bytes),
+    });
     expect((await author.get(`/api/uploads/${u.id}`)).body.upload).toEqual(u);
 
-    const raw = await author.get(`/api/uploads/${u.id}/raw`).buffer(true).parse(binary as never);
+    const raw = await author
+      .get(`/api/uploads/${u.id}/raw`)
+      .buffer(true)
+      .parse(binary as never);
     expect(raw.status).toBe(200);
     expect(Buffer.compare(raw.body as Buffer, bytes)).toBe(0);
     expect(raw.headers["x-content-sha256"]).toBe(sha256(bytes));
 
     // Use it as a filter's taps: the stored table holds exactly the file's values.
     const pid = await projectId(t.app, "coastwatch-s");
-    const fir = { kind: "upload", uploadId: u.id, sampleRateHz: 1e6, passbands: [[0, 1e5]], stopbands: [[2e5, 5e5]] };
+    const fir = {
+      kind: "upload",
+      uploadId: u.id,
+      sampleRateHz: 1e6,
+      passbands: [[0, 1e5]],
+      stopbands: [[2e5, 5e5]],
+    };
     const created = await author
       .post(`/api/projects/${pid}/designs`)
       .send({ name: `taps from ${fileName}`, content: { kind: "filter", fir, fixedPoint: { fir: Q15 } } });
     expect(created.status, JSON.stringify(created.body)).toBe(201);
-    const detail = RevisionDetailSchema.parse((await author.get(`/api/revisions/${created.body.revision.id}`)).body);
+    const detail = RevisionDetailSchema.parse(
+      (await author.get(`/api/revisions/${created.body.revision.id}`)).body,
+    );
     expect(detail.uploads).toEqual([u]);
     expect(detail.tables[0]).toMatchObject({ role: "fir", complex, length: re.length });
     expect(detail.tables[0]!.source).toMatchObject({ kind: "upload", uploadId: u.id, sha256: sha256(bytes) });
@@ -76,7 +124,9 @@ describe("uploads of every supported format", () => {
       .post(`/api/projects/${pid}/designs`)
       .send({ name: "Uploaded pulse", content: { kind: "waveform", tx, fixedPoint: { tx: Q15, rx: Q15 } } });
     expect(res.status, JSON.stringify(res.body)).toBe(201);
-    const detail = RevisionDetailSchema.parse((await author.get(`/api/revisions/${res.body.revision.id}`)).body);
+    const detail = RevisionDetailSchema.parse(
+      (await author.get(`/api/revisions/${res.body.revision.id}`)).body,
+    );
     const [txT, rxT] = detail.tables;
     const rx = await tableValues(author, detail.revision.id, rxT!.id);
     // conj(s[N−1−n]) written out by hand for s = [1, j, −1+0.5j].
@@ -87,7 +137,9 @@ describe("uploads of every supported format", () => {
 
   it("refuses an upload from another project, with the content path", async () => {
     const author = await signedIn(t.app, "author");
-    const u = UploadSchema.parse((await upload(author, "elsewhere.txt", Buffer.from("1\n"), "harbour-lidar-trials")).body.upload);
+    const u = UploadSchema.parse(
+      (await upload(author, "elsewhere.txt", Buffer.from("1\n"), "harbour-lidar-trials")).body.upload,
+    );
     const pid = await projectId(t.app, "coastwatch-s");
     const tx = { kind: "upload", uploadId: u.id, sampleRateHz: 1e6 };
     const res = await author
@@ -101,12 +153,42 @@ describe("uploads of every supported format", () => {
 
 // [file name, bytes, message, line, column]
 const BAD: [string, Buffer, string, number, number][] = [
-  ["not-a-number.txt", Buffer.from("1.0\n2.x\n"), 'not-a-number.txt: line 2, column 1: expected a number, found "2.x"', 2, 1],
-  ["nan.txt", Buffer.from("1\nNaN\n"), 'nan.txt: line 2, column 1: "NaN" is not allowed: values must be finite numbers', 2, 1],
-  ["inf.txt", Buffer.from("1\n-Inf\n"), 'inf.txt: line 2, column 1: "-Inf" is not allowed: values must be finite numbers', 2, 1],
-  ["ragged.csv", Buffer.from("1,2\n3\n"), "ragged.csv: line 2, column 2: expected 2 columns as on line 1, found 1", 2, 2],
+  [
+    "not-a-number.txt",
+    Buffer.from("1.0\n2.x\n"),
+    'not-a-number.txt: line 2, column 1: expected a number, found "2.x"',
+    2,
+    1,
+  ],
+  [
+    "nan.txt",
+    Buffer.from("1\nNaN\n"),
+    'nan.txt: line 2, column 1: "NaN" is not allowed: values must be finite numbers',
+    2,
+    1,
+  ],
+  [
+    "inf.txt",
+    Buffer.from("1\n-Inf\n"),
+    'inf.txt: line 2, column 1: "-Inf" is not allowed: values must be finite numbers',
+    2,
+    1,
+  ],
+  [
+    "ragged.csv",
+    Buffer.from("1,2\n3\n"),
+    "ragged.csv: line 2, column 2: expected 2 columns as on line 1, found 1",
+    2,
+    2,
+  ],
   ["empty.txt", Buffer.alloc(0), "empty.txt: the file has no values (only blank or comment lines)", 0, 0],
-  ["comments-only.txt", Buffer.from("# nothing\n"), "comments-only.txt: the file has no values (only blank or comment lines)", 0, 0],
+  [
+    "comments-only.txt",
+    Buffer.from("# nothing\n"),
+    "comments-only.txt: the file has no values (only blank or comment lines)",
+    0,
+    0,
+  ],
   [
     "too-many.txt",
     Buffer.from("0\n".repeat(4_194_305)),
@@ -117,14 +199,17 @@ const BAD: [string, Buffer, string, number, number][] = [
 ];
 
 describe("bad files", () => {
-  it.each(BAD)("%s → 400 with line and column, nothing stored", async (fileName, bytes, message, line, column) => {
-    const author = await signedIn(t.app, "author");
-    const before = await countRows(t.database.pool, "uploads");
-    const err = expectError(await upload(author, fileName, bytes), 400, "validation_failed");
-    expect(err.message).toBe(message);
-    expect(err.details).toEqual({ line, column });
-    expect(await countRows(t.database.pool, "uploads")).toBe(before);
-  });
+  it.each(BAD)(
+    "%s → 400 with line and column, nothing stored",
+    async (fileName, bytes, message, line, column) => {
+      const author = await signedIn(t.app, "author");
+      const before = await countRows(t.database.pool, "uploads");
+      const err = expectError(await upload(author, fileName, bytes), 400, "validation_failed");
+      expect(err.message).toBe(message);
+      expect(err.details).toEqual({ line, column });
+      expect(await countRows(t.database.pool, "uploads")).toBe(before);
+    },
+  );
 
   it("a file over 32 MiB → 413, nothing stored", async () => {
     const author = await signedIn(t.app, "author");
@@ -138,7 +223,11 @@ describe("bad files", () => {
   it("a request without a file → 400", async () => {
     const author = await signedIn(t.app, "author");
     const pid = await projectId(t.app, "coastwatch-s");
-    const err = expectError(await author.post(`/api/projects/${pid}/uploads`).field("note", "x"), 400, "bad_request");
+    const err = expectError(
+      await author.post(`/api/projects/${pid}/uploads`).field("note", "x"),
+      400,
+      "bad_request",
+    );
     expect(err.message).toMatch(/field named file/);
   });
 });
@@ -151,14 +240,19 @@ describe("who may upload and read uploads", () => {
 
   it("a user outside the project gets 404 on upload, description and bytes", async () => {
     const author = await signedIn(t.app, "author");
-    const u = UploadSchema.parse((await upload(author, "lidar.txt", Buffer.from("1\n"), "harbour-lidar-trials")).body.upload);
+    const u = UploadSchema.parse(
+      (await upload(author, "lidar.txt", Buffer.from("1\n"), "harbour-lidar-trials")).body.upload,
+    );
     const firmware = await signedIn(t.app, "firmware");
     expectError(await firmware.get(`/api/uploads/${u.id}`), 404, "not_found");
     expectError(await firmware.get(`/api/uploads/${u.id}/raw`), 404, "not_found");
     // An author who is not a member: the admin takes the author out of the project.
     const admin = await signedIn(t.app, "admin");
     const pid = await projectId(t.app, "harbour-lidar-trials");
-    const members = (await admin.get(`/api/projects/${pid}`)).body.members as { id: number; username: string }[];
+    const members = (await admin.get(`/api/projects/${pid}`)).body.members as {
+      id: number;
+      username: string;
+    }[];
     const keep = members.filter((m) => m.username !== "author").map((m) => m.id);
     expect((await admin.put(`/api/projects/${pid}/members`).send({ userIds: keep })).status).toBe(200);
     expectError(await upload(author, "x.txt", Buffer.from("1\n"), "harbour-lidar-trials"), 404, "not_found");
@@ -169,9 +263,11 @@ describe("who may upload and read uploads", () => {
   it("refuses UPDATE and DELETE of an upload at the database", async () => {
     const author = await signedIn(t.app, "author");
     const u = UploadSchema.parse((await upload(author, "fixed.txt", Buffer.from("1\n"))).body.upload);
-    await expect(t.database.pool.query("update uploads set file_name = 'x' where id = $1", [u.id])).rejects.toThrow(
+    await expect(
+      t.database.pool.query("update uploads set file_name = 'x' where id = $1", [u.id]),
+    ).rejects.toThrow(/cannot be changed or deleted/);
+    await expect(t.database.pool.query("delete from uploads where id = $1", [u.id])).rejects.toThrow(
       /cannot be changed or deleted/,
     );
-    await expect(t.database.pool.query("delete from uploads where id = $1", [u.id])).rejects.toThrow(/cannot be changed or deleted/);
   });
 });

@@ -115,7 +115,9 @@ describe("authoring: create designs", () => {
     expect(await page.evaluate(() => document.activeElement?.id)).toBe("design-search");
     await page.keyboard.type(stamp);
     await page.waitForURL(new RegExp(`q=${stamp}`));
-    expect((await table.getByRole("link").allTextContents()).sort()).toEqual([chirpName, `E2E uploaded chirp ${stamp}`].sort());
+    expect((await table.getByRole("link").allTextContents()).sort()).toEqual(
+      [chirpName, `E2E uploaded chirp ${stamp}`].sort(),
+    );
     await page.getByLabel("Kind").selectOption("filter");
     await page.waitForURL(/kind=filter/);
     await page.getByText("No design matches this search or filter").waitFor();

@@ -17,7 +17,10 @@ const DESIGN = `E2E Barker-13 bench pulse ${Date.now().toString(36)}`;
 const content = (rxBits: number) => ({
   kind: "waveform",
   tx: { kind: "phase-code", code: { kind: "barker", length: 13 }, sampleRateHz: 1e6 },
-  fixedPoint: { tx: { wordLength: 16, fractionLength: 15 }, rx: { wordLength: rxBits, fractionLength: rxBits - 1 } },
+  fixedPoint: {
+    tx: { wordLength: 16, fractionLength: 15 },
+    rx: { wordLength: rxBits, fractionLength: rxBits - 1 },
+  },
   interpolation: 1,
 });
 
@@ -33,14 +36,25 @@ async function release(revisionId: number, version: string, notes: string): Prom
   // A plain loop: expect.poll only runs inside a test, and this is fixture set-up.
   const deadline = Date.now() + 90_000;
   for (;;) {
-    const status = (await ok(await a.get(`/api/revisions/${revisionId}/analysis`), "status")) as { analysis: { state: string; error: string | null } };
+    const status = (await ok(await a.get(`/api/revisions/${revisionId}/analysis`), "status")) as {
+      analysis: { state: string; error: string | null };
+    };
     if (status.analysis.state === "done") break;
-    if (status.analysis.state === "failed" || Date.now() > deadline) throw new Error(`analysis ${status.analysis.state}: ${status.analysis.error}`);
+    if (status.analysis.state === "failed" || Date.now() > deadline)
+      throw new Error(`analysis ${status.analysis.state}: ${status.analysis.error}`);
     await new Promise((r) => setTimeout(r, 250));
   }
   await ok(await a.post(`/api/revisions/${revisionId}/submit`), "submit");
-  await ok(await reviewer.page.request.post(`/api/revisions/${revisionId}/decision`, { data: { decision: "approved", comment: "Bench figures agree." } }), "approve");
-  const rel = (await ok(await a.post(`/api/revisions/${revisionId}/release`, { data: { version, notes } }), "release")) as { release: { id: number } };
+  await ok(
+    await reviewer.page.request.post(`/api/revisions/${revisionId}/decision`, {
+      data: { decision: "approved", comment: "Bench figures agree." },
+    }),
+    "approve",
+  );
+  const rel = (await ok(
+    await a.post(`/api/revisions/${revisionId}/release`, { data: { version, notes } }),
+    "release",
+  )) as { release: { id: number } };
   return rel.release.id;
 }
 
@@ -54,18 +68,30 @@ beforeAll(async () => {
   await signIn(firmware.page, DEMO.firmware.username, DEMO.firmware.password, DEMO.firmware.displayName);
 
   const a = author.page.request;
-  const projects = (await ok(await a.get("/api/projects"), "projects")) as { projects: Array<{ id: number; slug: string }> };
+  const projects = (await ok(await a.get("/api/projects"), "projects")) as {
+    projects: Array<{ id: number; slug: string }>;
+  };
   const project = projects.projects.find((p) => p.slug === "coastwatch-s")!;
   const created = (await ok(
     await a.post(`/api/projects/${project.id}/designs`, {
-      data: { name: DESIGN, description: "Short bench pulse for the firmware hand-off test (fictional programme).", content: content(16) },
+      data: {
+        name: DESIGN,
+        description: "Short bench pulse for the firmware hand-off test (fictional programme).",
+        content: content(16),
+      },
     }),
     "create design",
   )) as { design: { id: number }; revision: { id: number } };
   firstId = await release(created.revision.id, "1.0.0", "First issue for the receiver bench.");
-  const r2 = (await ok(await a.post(`/api/designs/${created.design.id}/revisions`), "new revision")) as { revision: { id: number } };
+  const r2 = (await ok(await a.post(`/api/designs/${created.design.id}/revisions`), "new revision")) as {
+    revision: { id: number };
+  };
   await ok(await a.patch(`/api/revisions/${r2.revision.id}`, { data: { content: content(12) } }), "edit r2");
-  latestId = await release(r2.revision.id, "1.1.0", "Receive words narrowed to 12 bits\nto fit the DSP slice budget.");
+  latestId = await release(
+    r2.revision.id,
+    "1.1.0",
+    "Receive words narrowed to 12 bits\nto fit the DSP slice budget.",
+  );
 }, 240_000);
 
 afterAll(async () => {
@@ -101,12 +127,17 @@ describe("firmware engineer", () => {
     await page.getByText("to fit the DSP slice budget.").waitFor();
     const files = page.getByRole("table", { name: "Bundle files" });
     await files.getByRole("cell", { name: "manifest.schema.json", exact: true }).waitFor();
-    await page.getByText(/npm run pull -- 'coastwatch-s\/E2E Barker-13 bench pulse [a-z0-9]+@1\.1\.0' --out DIR/).waitFor();
+    await page
+      .getByText(/npm run pull -- 'coastwatch-s\/E2E Barker-13 bench pulse [a-z0-9]+@1\.1\.0' --out DIR/)
+      .waitFor();
     await page.getByText(/curl -fSL -H "Authorization: Bearer \$TAPWRIGHT_TOKEN"/).waitFor();
 
     const shown = (await page.getByTestId("bundle-sha256").textContent())!.trim();
     expect(shown).toMatch(/^[0-9a-f]{64}$/);
-    const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Download bundle" }).click()]);
+    const [download] = await Promise.all([
+      page.waitForEvent("download"),
+      page.getByRole("link", { name: "Download bundle" }).click(),
+    ]);
     expect(download.suggestedFilename()).toMatch(/^coastwatch-s-.*-1\.1\.0\.zip$/);
     const file = await download.path();
     // node:crypto's SHA-256 of the bytes the browser saved, against the page's figure.
@@ -121,7 +152,10 @@ describe("firmware engineer", () => {
     await expect.poll(() => diff.getByTestId("max-lsb-rx").textContent()).toBe("0.9375 LSB");
     await expect.poll(() => diff.getByTestId("max-lsb-tx").textContent()).toBe("0 LSB");
     // Richards, Fundamentals of Radar Signal Processing, 2nd ed., 2014, Table 4.1: Barker-13 PSL −22.28 dB.
-    await diff.getByRole("table", { name: "Metric changes" }).getByRole("row", { name: /Peak sidelobe level \(PSL\) -22\.28 dB/ }).waitFor();
+    await diff
+      .getByRole("table", { name: "Metric changes" })
+      .getByRole("row", { name: /Peak sidelobe level \(PSL\) -22\.28 dB/ })
+      .waitFor();
     await screenshot(page, "firmware-release");
     await expectAccessible(page, "firmware-release");
 
@@ -130,14 +164,23 @@ describe("firmware engineer", () => {
   });
 
   it("a withdrawn release shows the banner with its reason and stays downloadable", async () => {
-    await ok(await author.page.request.post(`/api/releases/${firstId}/withdraw`, { data: { reason: "Q1.15 receive words overflow the DSP slice." } }), "withdraw");
+    await ok(
+      await author.page.request.post(`/api/releases/${firstId}/withdraw`, {
+        data: { reason: "Q1.15 receive words overflow the DSP slice." },
+      }),
+      "withdraw",
+    );
     const { page } = firmware;
     await page.goto(`/releases/${firstId}`);
     const banner = page.getByRole("complementary", { name: "Withdrawn" });
     await banner.getByText("Reason: Q1.15 receive words overflow the DSP slice.").waitFor();
     await page.getByRole("link", { name: "Download bundle" }).waitFor();
     await page.goto("/releases?status=withdrawn");
-    await page.getByRole("table", { name: "Releases" }).getByRole("link", { name: "1.0.0" }).first().waitFor();
+    await page
+      .getByRole("table", { name: "Releases" })
+      .getByRole("link", { name: "1.0.0" })
+      .first()
+      .waitFor();
     await page.goto(`/releases/${firstId}`);
     await banner.waitFor();
     await screenshot(page, "firmware-release-withdrawn");
@@ -154,7 +197,9 @@ describe("firmware engineer", () => {
     const secret = (await section.getByTestId("new-token-secret").textContent())!;
     expect(secret).toMatch(/^tw_/);
     await section.getByText("it is shown only this once").waitFor();
-    const row = section.getByRole("table", { name: "My API tokens" }).getByRole("row", { name: /bench build/ });
+    const row = section
+      .getByRole("table", { name: "My API tokens" })
+      .getByRole("row", { name: /bench build/ });
     await row.getByText(`${secret.slice(0, 8)}…`).waitFor();
     await screenshot(page, "firmware-token-created");
     await expectAccessible(page, "firmware-token-created");

@@ -34,12 +34,36 @@ describe("every page looks finished and passes axe", () => {
   });
 
   const PAGES: Array<{ name: string; path: string; ready: (p: GuardedPage) => Promise<void> }> = [
-    { name: "home-admin", path: "/", ready: (p) => p.page.getByRole("table", { name: "My projects" }).waitFor() },
-    { name: "projects", path: "/projects", ready: (p) => p.page.getByRole("table", { name: "Projects" }).waitFor() },
-    { name: "project", path: "/projects/1", ready: (p) => p.page.getByRole("table", { name: "Members" }).waitFor() },
-    { name: "account", path: "/account", ready: (p) => p.page.getByRole("button", { name: "Change password" }).waitFor() },
-    { name: "admin-users", path: "/admin/users", ready: (p) => p.page.getByRole("table", { name: "Users" }).waitFor() },
-    { name: "not-found", path: "/no-such-place", ready: (p) => p.page.getByRole("heading", { name: "Page not found" }).waitFor() },
+    {
+      name: "home-admin",
+      path: "/",
+      ready: (p) => p.page.getByRole("table", { name: "My projects" }).waitFor(),
+    },
+    {
+      name: "projects",
+      path: "/projects",
+      ready: (p) => p.page.getByRole("table", { name: "Projects" }).waitFor(),
+    },
+    {
+      name: "project",
+      path: "/projects/1",
+      ready: (p) => p.page.getByRole("table", { name: "Members" }).waitFor(),
+    },
+    {
+      name: "account",
+      path: "/account",
+      ready: (p) => p.page.getByRole("button", { name: "Change password" }).waitFor(),
+    },
+    {
+      name: "admin-users",
+      path: "/admin/users",
+      ready: (p) => p.page.getByRole("table", { name: "Users" }).waitFor(),
+    },
+    {
+      name: "not-found",
+      path: "/no-such-place",
+      ready: (p) => p.page.getByRole("heading", { name: "Page not found" }).waitFor(),
+    },
     {
       name: "projects-empty-search",
       path: "/projects?q=zzz",

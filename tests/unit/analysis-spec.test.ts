@@ -30,8 +30,18 @@ describe("toAnalysisSpec", () => {
       { role: "rx" as const, re: Float64Array.from([-1, 0, 1]), im: Float64Array.from([-0.5, -1, 0]) },
     ];
     const spec = AnalysisSpecSchema.parse(toAnalysisSpec(content, tables));
-    expect(spec.kind === "waveform" && spec.tx).toEqual({ kind: "samples", sampleRateHz: 2e6, re: [1, 0, -1], im: [0, 1, 0.5] });
-    expect(spec).toMatchObject({ dopplerHz: 1000, interpolation: 8, inputBits: 14, rx: { window: { kind: "rectangular" } } });
+    expect(spec.kind === "waveform" && spec.tx).toEqual({
+      kind: "samples",
+      sampleRateHz: 2e6,
+      re: [1, 0, -1],
+      im: [0, 1, 0.5],
+    });
+    expect(spec).toMatchObject({
+      dopplerHz: 1000,
+      interpolation: 8,
+      inputBits: 14,
+      rx: { window: { kind: "rectangular" } },
+    });
   });
 
   it("replaces uploaded FIR taps by taps with their bands; a real table has no im", () => {

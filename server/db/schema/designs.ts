@@ -72,7 +72,9 @@ export const revisions = pgTable(
   (t) => [
     unique("revisions_design_number_unique").on(t.designId, t.number),
     // At most one draft per design, so two concurrent "new revision" requests cannot both succeed.
-    uniqueIndex("revisions_one_draft_per_design").on(t.designId).where(sql`${t.state} = 'draft'`),
+    uniqueIndex("revisions_one_draft_per_design")
+      .on(t.designId)
+      .where(sql`${t.state} = 'draft'`),
     check("revisions_hash_after_draft", sql`${t.state} = 'draft' or ${t.contentHash} is not null`),
   ],
 );

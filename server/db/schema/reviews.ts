@@ -1,5 +1,16 @@
 import { sql } from "drizzle-orm";
-import { check, index, integer, jsonb, pgEnum, pgTable, text, timestamp, unique, varchar } from "drizzle-orm/pg-core";
+import {
+  check,
+  index,
+  integer,
+  jsonb,
+  pgEnum,
+  pgTable,
+  text,
+  timestamp,
+  unique,
+  varchar,
+} from "drizzle-orm/pg-core";
 import { REVIEW_DECISIONS } from "../../../shared/schemas/reviews";
 import { bytea, designs, revisions } from "./designs";
 import { users } from "./users";
@@ -28,7 +39,10 @@ export const reviews = pgTable(
   },
   (t) => [
     index("reviews_revision_idx").on(t.revisionId),
-    check("reviews_changes_need_comment", sql`${t.decision} <> 'changes_requested' or length(btrim(${t.comment})) > 0`),
+    check(
+      "reviews_changes_need_comment",
+      sql`${t.decision} <> 'changes_requested' or length(btrim(${t.comment})) > 0`,
+    ),
   ],
 );
 

@@ -2,7 +2,13 @@ import { Router } from "express";
 import { ReleaseListQuerySchema, WithdrawReleaseSchema } from "../../../shared/schemas/releases";
 import { currentUser, requireUser } from "../../auth/guards";
 import { parseInput } from "../../http/errors";
-import { designReleases, getRelease, listReleases, suggestVersions, withdrawRelease } from "../../services/releases";
+import {
+  designReleases,
+  getRelease,
+  listReleases,
+  suggestVersions,
+  withdrawRelease,
+} from "../../services/releases";
 import type { RouteContext } from "../context";
 import { IdParamSchema } from "../params";
 

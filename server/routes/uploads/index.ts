@@ -24,7 +24,13 @@ const receiveFile: RequestHandler = (req, res, next) => {
         const name = req.file?.originalname ?? err.field ?? "file";
         res
           .status(413)
-          .json(errorBody("bad_request", `The file is larger than 32 MiB (${MAX_UPLOAD_BYTES} bytes), the limit`, { field: name }));
+          .json(
+            errorBody(
+              "bad_request",
+              `The file is larger than 32 MiB (${MAX_UPLOAD_BYTES} bytes), the limit`,
+              { field: name },
+            ),
+          );
         return;
       }
       return next(new HttpError("bad_request", `Upload refused: ${err.message}`));
@@ -45,7 +51,8 @@ export function projectUploadRoutes(ctx: RouteContext): Router {
   };
   r.post("/", requireRole("author"), member, receiveFile, async (req, res) => {
     const { projectId } = parseInput(ProjectIdParamSchema, req.params);
-    if (!req.file) throw new HttpError("bad_request", "Send the file as multipart/form-data in a field named file");
+    if (!req.file)
+      throw new HttpError("bad_request", "Send the file as multipart/form-data in a field named file");
     const upload = await createUpload(ctx.db, currentUser(req), projectId, req.file);
     res.status(201).json({ upload });
   });

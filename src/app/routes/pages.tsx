@@ -10,7 +10,9 @@ import { ForbiddenRoute } from "./not-found";
 
 /** `/`: the home page, with the projects feature's table composed in. */
 export function HomeRoute() {
-  return <HomePage renderProjects={(projects) => <ProjectsTable projects={projects} label="My projects" />} />;
+  return (
+    <HomePage renderProjects={(projects) => <ProjectsTable projects={projects} label="My projects" />} />
+  );
 }
 
 /** `/account`. */

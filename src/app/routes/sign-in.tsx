@@ -20,7 +20,9 @@ export function SignInRoute() {
         </div>
         <div className="rounded-md border border-paper-300 bg-paper-50 p-6 shadow-xl">
           <h1 className="mb-1 text-lg font-semibold text-ink-900">Sign in</h1>
-          <p className="mb-5 text-sm text-ink-600">Fixed-point hand-off for pulse-compression waveforms and filters.</p>
+          <p className="mb-5 text-sm text-ink-600">
+            Fixed-point hand-off for pulse-compression waveforms and filters.
+          </p>
           <SignInForm onSignedIn={() => navigate(next, { replace: true })} />
         </div>
       </div>

@@ -12,7 +12,11 @@ export function SignalPlot(props: SignalPlotProps) {
   return (
     <Suspense
       fallback={
-        <div role="status" aria-label={`Loading ${props.title}`} style={{ height: (props.height ?? 220) + 64 }}>
+        <div
+          role="status"
+          aria-label={`Loading ${props.title}`}
+          style={{ height: (props.height ?? 220) + 64 }}
+        >
           <Skeleton className="h-full w-full" />
         </div>
       }

@@ -16,7 +16,12 @@ const heading = ({ label, unit }: Labelled) => {
  * RFC 4180 CSV (CRLF line ends). Numbers use JavaScript's shortest round-trip form, so reading a value back
  * gives the same float64 that was plotted.
  */
-export function plotCsv(x: Labelled, series: readonly Labelled[], xs: ArrayLike<number>, ys: readonly ArrayLike<number>[]): string {
+export function plotCsv(
+  x: Labelled,
+  series: readonly Labelled[],
+  xs: ArrayLike<number>,
+  ys: readonly ArrayLike<number>[],
+): string {
   const lines = [[x, ...series].map(heading).join(",")];
   for (let i = 0; i < xs.length; i++) {
     const row = [String(xs[i])];

@@ -66,7 +66,17 @@ function drawMarkers(u: uPlot, markers: SignalPlotProps["markers"]) {
  * Reset, cursor read-out in the legend, PNG and CSV export. With `reduce` it draws what that returns for the
  * range in view (e.g. a min/max envelope), recomputed at each zoom.
  */
-export default function SignalPlot({ title, x, series, yAxis, fileName, height = 220, reduce, reduceNote, markers }: SignalPlotProps) {
+export default function SignalPlot({
+  title,
+  x,
+  series,
+  yAxis,
+  fileName,
+  height = 220,
+  reduce,
+  reduceNote,
+  markers,
+}: SignalPlotProps) {
   const holder = useRef<HTMLDivElement>(null);
   const plotRef = useRef<uPlot | null>(null);
   const [zoomed, setZoomed] = useState(false);
@@ -88,10 +98,31 @@ export default function SignalPlot({ title, x, series, yAxis, fileName, height =
       width,
       height,
       title: undefined,
-      scales: { x: { time: false }, y: yAxis.min !== undefined || yAxis.max !== undefined ? { auto: false, range: [yAxis.min ?? -1, yAxis.max ?? 1] } : {} },
+      scales: {
+        x: { time: false },
+        y:
+          yAxis.min !== undefined || yAxis.max !== undefined
+            ? { auto: false, range: [yAxis.min ?? -1, yAxis.max ?? 1] }
+            : {},
+      },
       axes: [
-        { label: x.unit ? `${x.label} (${x.unit})` : x.label, stroke: AXIS.stroke, font: FONT, labelFont: FONT, grid: { stroke: AXIS.grid, width: 1 }, ticks: { stroke: AXIS.tick, width: 1 } },
-        { label: yAxis.unit ? `${yAxis.label} (${yAxis.unit})` : yAxis.label, stroke: AXIS.stroke, font: FONT, labelFont: FONT, size: 64, grid: { stroke: AXIS.grid, width: 1 }, ticks: { stroke: AXIS.tick, width: 1 } },
+        {
+          label: x.unit ? `${x.label} (${x.unit})` : x.label,
+          stroke: AXIS.stroke,
+          font: FONT,
+          labelFont: FONT,
+          grid: { stroke: AXIS.grid, width: 1 },
+          ticks: { stroke: AXIS.tick, width: 1 },
+        },
+        {
+          label: yAxis.unit ? `${yAxis.label} (${yAxis.unit})` : yAxis.label,
+          stroke: AXIS.stroke,
+          font: FONT,
+          labelFont: FONT,
+          size: 64,
+          grid: { stroke: AXIS.grid, width: 1 },
+          ticks: { stroke: AXIS.tick, width: 1 },
+        },
       ],
       series: [
         { label: x.label, value: (_u, v) => readout(v, x.unit) },
@@ -117,7 +148,11 @@ export default function SignalPlot({ title, x, series, yAxis, fileName, height =
             const min = u.scales.x!.min ?? xMin;
             const max = u.scales.x!.max ?? xMax;
             setZoomed(min > xMin || max < xMax);
-            if (reduce) u.setData(view(min, max, u.bbox.width > 0 ? Math.round(u.bbox.width / uPlot.pxRatio) : width), false);
+            if (reduce)
+              u.setData(
+                view(min, max, u.bbox.width > 0 ? Math.round(u.bbox.width / uPlot.pxRatio) : width),
+                false,
+              );
           },
         ],
       },
@@ -162,7 +197,21 @@ export default function SignalPlot({ title, x, series, yAxis, fileName, height =
       u.destroy();
       plotRef.current = null;
     };
-  }, [full, reduce, markers, height, series, x.label, x.unit, xMax, xMin, yAxis.label, yAxis.max, yAxis.min, yAxis.unit]);
+  }, [
+    full,
+    reduce,
+    markers,
+    height,
+    series,
+    x.label,
+    x.unit,
+    xMax,
+    xMin,
+    yAxis.label,
+    yAxis.max,
+    yAxis.min,
+    yAxis.unit,
+  ]);
 
   const pan = (direction: -1 | 1) => {
     const u = plotRef.current;

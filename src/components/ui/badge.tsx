@@ -13,9 +13,23 @@ const TONES: Record<Tone, string> = {
 };
 
 /** A small label for a state or a role. */
-export function Badge({ tone = "neutral", children, className }: { tone?: Tone; children: ReactNode; className?: string }) {
+export function Badge({
+  tone = "neutral",
+  children,
+  className,
+}: {
+  tone?: Tone;
+  children: ReactNode;
+  className?: string;
+}) {
   return (
-    <span className={cn("inline-flex items-center whitespace-nowrap rounded-sm border px-1.5 py-px text-xs font-medium leading-4", TONES[tone], className)}>
+    <span
+      className={cn(
+        "inline-flex items-center whitespace-nowrap rounded-sm border px-1.5 py-px text-xs font-medium leading-4",
+        TONES[tone],
+        className,
+      )}
+    >
       {children}
     </span>
   );

@@ -14,7 +14,10 @@ const VARIANTS: Record<Variant, string> = {
 export const Button = forwardRef<
   HTMLButtonElement,
   ButtonHTMLAttributes<HTMLButtonElement> & { variant?: Variant; size?: "sm" | "md"; busy?: boolean }
->(function Button({ variant = "secondary", size = "md", busy = false, className, disabled, children, type, ...rest }, ref) {
+>(function Button(
+  { variant = "secondary", size = "md", busy = false, className, disabled, children, type, ...rest },
+  ref,
+) {
   return (
     <button
       ref={ref}
@@ -30,7 +33,12 @@ export const Button = forwardRef<
       )}
       {...rest}
     >
-      {busy && <span className="h-3 w-3 animate-spin rounded-full border-2 border-current border-r-transparent" aria-hidden="true" />}
+      {busy && (
+        <span
+          className="h-3 w-3 animate-spin rounded-full border-2 border-current border-r-transparent"
+          aria-hidden="true"
+        />
+      )}
       {children}
     </button>
   );

@@ -62,7 +62,11 @@ export function Dialog({
             </button>
           </header>
           {children && <div className="px-5 py-4">{children}</div>}
-          {footer && <footer className="flex justify-end gap-2 border-t border-paper-300 bg-paper-100 px-5 py-3">{footer}</footer>}
+          {footer && (
+            <footer className="flex justify-end gap-2 border-t border-paper-300 bg-paper-100 px-5 py-3">
+              {footer}
+            </footer>
+          )}
         </div>
       )}
     </dialog>
@@ -88,7 +92,13 @@ export function DialogActions({
   return (
     <>
       <Button onClick={onCancel}>Cancel</Button>
-      <Button type={formId ? "submit" : "button"} form={formId} variant={variant} busy={busy} onClick={onConfirm}>
+      <Button
+        type={formId ? "submit" : "button"}
+        form={formId}
+        variant={variant}
+        busy={busy}
+        onClick={onConfirm}
+      >
         {label}
       </Button>
     </>

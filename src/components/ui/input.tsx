@@ -12,8 +12,16 @@ export function textBoxClass(invalid: boolean | undefined, ...extra: Array<strin
 }
 
 /** A single-line text input with the house border and focus ring. */
-export const Input = forwardRef<HTMLInputElement, InputHTMLAttributes<HTMLInputElement> & { invalid?: boolean }>(
-  function Input({ className, invalid, ...rest }, ref) {
-    return <input ref={ref} aria-invalid={invalid || undefined} className={textBoxClass(invalid, "h-8", className)} {...rest} />;
-  },
-);
+export const Input = forwardRef<
+  HTMLInputElement,
+  InputHTMLAttributes<HTMLInputElement> & { invalid?: boolean }
+>(function Input({ className, invalid, ...rest }, ref) {
+  return (
+    <input
+      ref={ref}
+      aria-invalid={invalid || undefined}
+      className={textBoxClass(invalid, "h-8", className)}
+      {...rest}
+    />
+  );
+});

@@ -1,7 +1,15 @@
 import type { ReactNode } from "react";
 
 /** A page's title row: heading, a line of context, and the one primary action at the right. */
-export function PageHeader({ title, subtitle, action }: { title: ReactNode; subtitle?: ReactNode; action?: ReactNode }) {
+export function PageHeader({
+  title,
+  subtitle,
+  action,
+}: {
+  title: ReactNode;
+  subtitle?: ReactNode;
+  action?: ReactNode;
+}) {
   return (
     <div className="mb-5 flex items-end justify-between gap-4 border-b border-paper-300 pb-3">
       <div className="min-w-0">
@@ -14,7 +22,15 @@ export function PageHeader({ title, subtitle, action }: { title: ReactNode; subt
 }
 
 /** A titled block inside a page (no frame of its own: the table or list inside brings one). */
-export function Section({ title, action, children }: { title: string; action?: ReactNode; children: ReactNode }) {
+export function Section({
+  title,
+  action,
+  children,
+}: {
+  title: string;
+  action?: ReactNode;
+  children: ReactNode;
+}) {
   return (
     <section className="mb-6" aria-label={title}>
       <div className="mb-2 flex items-center justify-between">

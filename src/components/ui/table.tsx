@@ -2,7 +2,15 @@ import type { HTMLAttributes, ReactNode, TdHTMLAttributes, ThHTMLAttributes } fr
 import { cn } from "@/lib/cn";
 
 /** A compact data table in a bordered frame; `label` names it for assistive tech. */
-export function Table({ label, children, className }: { label: string; children: ReactNode; className?: string }) {
+export function Table({
+  label,
+  children,
+  className,
+}: {
+  label: string;
+  children: ReactNode;
+  className?: string;
+}) {
   return (
     <div className={cn("overflow-x-auto rounded border border-paper-300 bg-paper-50", className)}>
       <table aria-label={label} className="w-full border-collapse text-sm">
@@ -13,7 +21,11 @@ export function Table({ label, children, className }: { label: string; children:
 }
 
 /** Header cell; `numeric` right-aligns it over a column of numbers. */
-export function Th({ numeric, className, ...rest }: ThHTMLAttributes<HTMLTableCellElement> & { numeric?: boolean }) {
+export function Th({
+  numeric,
+  className,
+  ...rest
+}: ThHTMLAttributes<HTMLTableCellElement> & { numeric?: boolean }) {
   return (
     <th
       scope="col"
@@ -28,10 +40,18 @@ export function Th({ numeric, className, ...rest }: ThHTMLAttributes<HTMLTableCe
 }
 
 /** Body cell; `numeric` sets mono tabular figures, right-aligned. */
-export function Td({ numeric, className, ...rest }: TdHTMLAttributes<HTMLTableCellElement> & { numeric?: boolean }) {
+export function Td({
+  numeric,
+  className,
+  ...rest
+}: TdHTMLAttributes<HTMLTableCellElement> & { numeric?: boolean }) {
   return (
     <td
-      className={cn("border-b border-paper-200 px-3 py-1.5 align-middle", numeric && "text-right font-mono text-[13px]", className)}
+      className={cn(
+        "border-b border-paper-200 px-3 py-1.5 align-middle",
+        numeric && "text-right font-mono text-[13px]",
+        className,
+      )}
       {...rest}
     />
   );

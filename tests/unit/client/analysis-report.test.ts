@@ -115,7 +115,9 @@ describe("plots", () => {
     expect(Array.from(sq.x.values)).toEqual([4, 5, 6, 7, 8, 9, 10, 11, 12]);
     expect(Array.from(sq.series[0]!.values)).toEqual(lfm.sweep!.rows.map((r) => r.figures.coefficientSqnrDb));
     expect(sq.series[1]!.values.every((v) => v === 45)).toBe(true);
-    expect(sq.markers).toEqual([{ x: lfm.sweep!.smallestPassingWordLength!, label: `W = ${lfm.sweep!.smallestPassingWordLength}` }]);
+    expect(sq.markers).toEqual([
+      { x: lfm.sweep!.smallestPassingWordLength!, label: `W = ${lfm.sweep!.smallestPassingWordLength}` },
+    ]);
     // SQNR grows about 6.02 dB per bit (MT-229): between W = 6 and W = 12, 36.1 ± 2 dB.
     const s = lfm.sweep!.rows;
     expect(s[8]!.figures.coefficientSqnrDb! - s[2]!.figures.coefficientSqnrDb!).toBeGreaterThan(6 * 6.02 - 2);
@@ -125,7 +127,14 @@ describe("plots", () => {
   it("draw a filter's stopband limit as a mask below the passband", () => {
     const fir = analyze({
       kind: "filter",
-      fir: { kind: "design", band: "lowpass", sampleRateHz: 100e6, cutoffHz: 12.5e6, transitionHz: 5e6, stopbandAttenuationDb: 60 },
+      fir: {
+        kind: "design",
+        band: "lowpass",
+        sampleRateHz: 100e6,
+        cutoffHz: 12.5e6,
+        transitionHz: 5e6,
+        stopbandAttenuationDb: 60,
+      },
       fixedPoint: { fir: { wordLength: 16, fractionLength: 15 } },
       limits: { stopbandAttenuationDbMin: 55 },
     });
@@ -136,7 +145,8 @@ describe("plots", () => {
     // Stopband from cutoff + transition/2 = 15 MHz (docs/analysis.md): NaN (a gap) below, −55 dB from there on.
     const xs = resp!.x.values;
     expect(resp!.x.unit).toBe("MHz");
-    for (let i = 0; i < xs.length; i++) expect(Number.isNaN(mask.values[i]!) ? "gap" : mask.values[i]).toBe(xs[i]! >= 15 ? -55 : "gap");
+    for (let i = 0; i < xs.length; i++)
+      expect(Number.isNaN(mask.values[i]!) ? "gap" : mask.values[i]).toBe(xs[i]! >= 15 ? -55 : "gap");
     // Attenuation of a 60 dB Kaiser design: within 1 dB of 60 (O&S eqs. 7.92–7.93 design target).
     expect(fir.float.stopbandAttenuationDb!).toBeGreaterThan(59);
   });

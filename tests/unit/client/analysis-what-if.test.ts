@@ -6,7 +6,14 @@ import { toAnalysisSpec } from "@shared/analysis-spec";
 import { RevisionContentSchema, type RevisionContent } from "@shared/schemas/designs";
 import { pollInterval, POLL_MS } from "@/features/analysis/api/get-analysis";
 import { percent, secondsLeft, stageLabel } from "@/features/analysis/lib/progress";
-import { applyChange, changesContent, compareFigures, currentChange, mainFigures, tableRolesOf } from "@/features/analysis/lib/what-if";
+import {
+  applyChange,
+  changesContent,
+  compareFigures,
+  currentChange,
+  mainFigures,
+  tableRolesOf,
+} from "@/features/analysis/lib/what-if";
 import { runWhatIf } from "@/features/analysis/lib/what-if-run";
 import { windowOf, DEFAULT_WINDOW_PARAMS } from "@/features/analysis/lib/what-if-options";
 import type { AnalysisStatus } from "@shared/schemas/analyses";
@@ -24,10 +31,25 @@ const lfm: RevisionContent = RevisionContentSchema.parse({
 describe("applying a change", () => {
   it("changes only the chosen table's format and leaves the input alone", () => {
     const c = currentChange(lfm, "rx");
-    expect(c.fixedPoint).toEqual({ wordLength: 12, fractionLength: 11, rounding: "nearest-even", overflow: "saturate" });
-    const next = applyChange(lfm, { ...c, fixedPoint: { ...c.fixedPoint, wordLength: 8, fractionLength: 7, rounding: "floor" } });
-    expect(next.kind === "waveform" && next.fixedPoint.rx).toMatchObject({ wordLength: 8, fractionLength: 7, rounding: "floor", scaling: "full-scale" });
-    expect(next.kind === "waveform" && next.fixedPoint.tx).toEqual(lfm.kind === "waveform" && lfm.fixedPoint.tx);
+    expect(c.fixedPoint).toEqual({
+      wordLength: 12,
+      fractionLength: 11,
+      rounding: "nearest-even",
+      overflow: "saturate",
+    });
+    const next = applyChange(lfm, {
+      ...c,
+      fixedPoint: { ...c.fixedPoint, wordLength: 8, fractionLength: 7, rounding: "floor" },
+    });
+    expect(next.kind === "waveform" && next.fixedPoint.rx).toMatchObject({
+      wordLength: 8,
+      fractionLength: 7,
+      rounding: "floor",
+      scaling: "full-scale",
+    });
+    expect(next.kind === "waveform" && next.fixedPoint.tx).toEqual(
+      lfm.kind === "waveform" && lfm.fixedPoint.tx,
+    );
     expect(lfm.kind === "waveform" && lfm.fixedPoint.rx.wordLength).toBe(12);
     // The applied content is still valid for PATCH /api/revisions/:id.
     expect(RevisionContentSchema.safeParse(next).success).toBe(true);
@@ -47,7 +69,10 @@ describe("the worker's computation", () => {
   it("moves the SQNR by about 6.02 dB per bit when W goes 12 → 8 (MT-229: SQNR = 6.02·B + 1.76 dB)", () => {
     const c = currentChange(lfm, "rx");
     const w12 = runWhatIf(lfm, []).figures;
-    const w8 = runWhatIf(applyChange(lfm, { ...c, fixedPoint: { ...c.fixedPoint, wordLength: 8, fractionLength: 7 } }), []).figures;
+    const w8 = runWhatIf(
+      applyChange(lfm, { ...c, fixedPoint: { ...c.fixedPoint, wordLength: 8, fractionLength: 7 } }),
+      [],
+    ).figures;
     const drop = w12.coefficientSqnrDb! - w8.coefficientSqnrDb!;
     // Four bits: 24.08 dB; a 250-sample chirp is not an ideal sine, so ±1.5 dB.
     expect(drop).toBeGreaterThan(4 * 6.02 - 1.5);
@@ -64,9 +89,19 @@ describe("the worker's computation", () => {
 
   it("shows the Hamming receive weighting's mismatch loss of 1.34–1.35 dB (Richards 2014, p. 288)", () => {
     // Large BT so the window, not the finite pulse, sets the loss: 10 MHz × 50 µs, BT = 500.
-    const wide = RevisionContentSchema.parse({ ...lfm, tx: { kind: "lfm", bandwidthHz: 10e6, pulseWidthS: 50e-6, sampleRateHz: 12.5e6 } });
+    const wide = RevisionContentSchema.parse({
+      ...lfm,
+      tx: { kind: "lfm", bandwidthHz: 10e6, pulseWidthS: 50e-6, sampleRateHz: 12.5e6 },
+    });
     const c = currentChange(wide, "rx");
-    const f = runWhatIf(applyChange(wide, { ...c, fixedPoint: { ...c.fixedPoint, wordLength: 16, fractionLength: 15 }, rxWindow: { kind: "hamming" } }), []).figures;
+    const f = runWhatIf(
+      applyChange(wide, {
+        ...c,
+        fixedPoint: { ...c.fixedPoint, wordLength: 16, fractionLength: 15 },
+        rxWindow: { kind: "hamming" },
+      }),
+      [],
+    ).figures;
     expect(f.mismatchLossDb!).toBeGreaterThan(1.33);
     expect(f.mismatchLossDb!).toBeLessThan(1.36);
   });
@@ -74,7 +109,10 @@ describe("the worker's computation", () => {
   it("counts the overflows of wrap at Q1.(W−1) where +1.0 does not fit (REFERENCES.md, common practice)", () => {
     const asGiven = RevisionContentSchema.parse({
       ...lfm,
-      fixedPoint: { tx: { wordLength: 16, fractionLength: 15 }, rx: { wordLength: 12, fractionLength: 11, scaling: "as-given", overflow: "wrap" } },
+      fixedPoint: {
+        tx: { wordLength: 16, fractionLength: 15 },
+        rx: { wordLength: 12, fractionLength: 11, scaling: "as-given", overflow: "wrap" },
+      },
     });
     const f = runWhatIf(asGiven, []).figures;
     // The chirp's I (cos) starts at exactly +1.0 at t = 0 of the reversed, conjugated filter: at least one overflow.
@@ -82,7 +120,13 @@ describe("the worker's computation", () => {
   });
 
   it("reports a bad change in words instead of throwing", () => {
-    const bad = { ...lfm, fixedPoint: { ...(lfm.kind === "waveform" ? lfm.fixedPoint : {}), rx: { wordLength: 40, fractionLength: 39 } } } as RevisionContent;
+    const bad = {
+      ...lfm,
+      fixedPoint: {
+        ...(lfm.kind === "waveform" ? lfm.fixedPoint : {}),
+        rx: { wordLength: 40, fractionLength: 39 },
+      },
+    } as RevisionContent;
     expect(() => runWhatIf(bad, [])).toThrow(/wordLength|32/);
   });
 });
@@ -115,7 +159,18 @@ describe("status helpers", () => {
   });
 
   it("poll only while queued or running", () => {
-    const base = { contentHash: "x", progress: 0, stage: null, error: null, queuedAt: "", startedAt: null, finishedAt: null, durationMs: null, softwareVersion: null, report: null };
+    const base = {
+      contentHash: "x",
+      progress: 0,
+      stage: null,
+      error: null,
+      queuedAt: "",
+      startedAt: null,
+      finishedAt: null,
+      durationMs: null,
+      softwareVersion: null,
+      report: null,
+    };
     const s = (state: AnalysisStatus["state"]): AnalysisStatus => ({ ...base, state });
     expect(pollInterval(s("queued"))).toBe(POLL_MS);
     expect(pollInterval(s("running"))).toBe(POLL_MS);

@@ -19,7 +19,8 @@ import { formPathOf, toCreateInput } from "@/features/designs/lib/to-create-inpu
 import { hzToMhz, mhzToHz, sToUs, usToS } from "@/features/designs/lib/units";
 
 /** x·10^k through decimal.js (exact decimal arithmetic, one rounding to double at the end). */
-const decimalShift = (x: number, k: number) => new Decimal(String(x)).times(new Decimal(10).pow(k)).toNumber();
+const decimalShift = (x: number, k: number) =>
+  new Decimal(String(x)).times(new Decimal(10).pow(k)).toNumber();
 
 describe("unit conversions", () => {
   it("give the double nearest the typed value times 10^±6, unlike ×1e-6 or ÷1e6", () => {
@@ -89,7 +90,12 @@ describe("derived figures", () => {
     expect(e.beta).toBeCloseTo(beta, 12);
     const v: DesignFormValues = { ...defaultFormValues(), kind: "filter" };
     const labels = Object.fromEntries(deriveFigures(v).figures.map((f) => [f.label, f.value]));
-    expect(labels).toMatchObject({ "Kaiser order M": "87", "Kaiser β": "6.755", Taps: "88", "Transition Δω": "0.1000·π rad/sample" });
+    expect(labels).toMatchObject({
+      "Kaiser order M": "87",
+      "Kaiser β": "6.755",
+      Taps: "88",
+      "Transition Δω": "0.1000·π rad/sample",
+    });
   });
 
   it("chips: Barker-13 has 13, Frank M = 4 has 16, P4 of length 64 has 64", () => {
@@ -99,10 +105,23 @@ describe("derived figures", () => {
     expect(chipCount("p4", { barkerLength: 0, order: 0, length: 64 })).toBe(64);
     const v = defaultFormValues();
     v.generator = "phase-code";
-    v.phaseCode = { ...v.phaseCode, code: "barker", barkerLength: 13, samplesPerChip: 2, rateBasis: "chip", rateMHz: 5 };
+    v.phaseCode = {
+      ...v.phaseCode,
+      code: "barker",
+      barkerLength: 13,
+      samplesPerChip: 2,
+      rateBasis: "chip",
+      rateMHz: 5,
+    };
     const f = Object.fromEntries(deriveFigures(v).figures.map((x) => [x.label, x.value]));
     // Chip 1/(5 MHz) = 200 ns → cτ/2 = 29.98 m; fs = 2 samples/chip × 5 MHz.
-    expect(f).toMatchObject({ Chips: "13", "Chip length": "200 ns", "Samples N": "26", "Range resolution cτ/2": "30.0 m", "Sample rate": "10.0 MHz" });
+    expect(f).toMatchObject({
+      Chips: "13",
+      "Chip length": "200 ns",
+      "Samples N": "26",
+      "Range resolution cτ/2": "30.0 m",
+      "Sample rate": "10.0 MHz",
+    });
   });
 
   it("Q notation counts the sign among the integer bits (common practice: Q1.15 for a 16-bit fraction)", () => {
@@ -115,7 +134,9 @@ describe("derived figures", () => {
   it("warns when undersampled, for a real chirp below B/2, and for huge N", () => {
     const v = defaultFormValues();
     v.lfm.sampleRateMHz = 8; // below B = 10 MHz
-    expect(deriveFigures(v).warnings.join(" ")).toMatch(/undersampled: complex baseband needs fs ≥ B = 10.0 MHz/);
+    expect(deriveFigures(v).warnings.join(" ")).toMatch(
+      /undersampled: complex baseband needs fs ≥ B = 10.0 MHz/,
+    );
     v.lfm = { ...v.lfm, output: "real", intermediateFrequencyMHz: 4, sampleRateMHz: 40 };
     const w = deriveFigures(v).warnings.join(" ");
     expect(w).toMatch(/IF is below B\/2/);
@@ -139,7 +160,14 @@ describe("form → CreateDesignSchema mapping", () => {
     const parsed = CreateDesignSchema.parse(toCreateInput(v));
     expect(parsed.content).toMatchObject({
       kind: "waveform",
-      tx: { kind: "lfm", bandwidthHz: 10_000_000, pulseWidthS: 5e-5, sampleRateHz: 12_500_000, direction: "up", output: "complex" },
+      tx: {
+        kind: "lfm",
+        bandwidthHz: 10_000_000,
+        pulseWidthS: 5e-5,
+        sampleRateHz: 12_500_000,
+        direction: "up",
+        output: "complex",
+      },
       rx: { window: { kind: "taylor", nbar: 6, sidelobeDb: -35 } },
       fixedPoint: { tx: { wordLength: 16, fractionLength: 15 }, rx: { wordLength: 16, fractionLength: 15 } },
       limits: {},
@@ -149,30 +177,77 @@ describe("form → CreateDesignSchema mapping", () => {
   it("phase code from a chip rate; NLFM with its window; filter design; uploads with bands", () => {
     const v = { ...defaultFormValues(), name: "x" };
     v.generator = "phase-code";
-    v.phaseCode = { ...v.phaseCode, code: "p4", length: 64, samplesPerChip: 3, rateBasis: "chip", rateMHz: 2.5 };
+    v.phaseCode = {
+      ...v.phaseCode,
+      code: "p4",
+      length: 64,
+      samplesPerChip: 3,
+      rateBasis: "chip",
+      rateMHz: 2.5,
+    };
     expect(CreateDesignSchema.parse(toCreateInput(v)).content).toMatchObject({
-      tx: { kind: "phase-code", code: { kind: "p4", length: 64 }, samplesPerChip: 3, sampleRateHz: 7_500_000 },
+      tx: {
+        kind: "phase-code",
+        code: { kind: "p4", length: 64 },
+        samplesPerChip: 3,
+        sampleRateHz: 7_500_000,
+      },
     });
     v.generator = "nlfm";
     v.nlfm.window = { kind: "chebyshev", attenuationDb: 40, beta: 1, nbar: 1, sidelobeDb: -20 };
     expect(CreateDesignSchema.parse(toCreateInput(v)).content).toMatchObject({
-      tx: { kind: "nlfm", bandwidthHz: 5e6, pulseWidthS: 1e-4, sampleRateHz: 6.25e6, window: { kind: "chebyshev", attenuationDb: 40 } },
+      tx: {
+        kind: "nlfm",
+        bandwidthHz: 5e6,
+        pulseWidthS: 1e-4,
+        sampleRateHz: 6.25e6,
+        window: { kind: "chebyshev", attenuationDb: 40 },
+      },
     });
     const f = { ...defaultFormValues(), name: "fir", kind: "filter" as const };
     expect(CreateDesignSchema.parse(toCreateInput(f)).content).toEqual({
       kind: "filter",
-      fir: { kind: "design", band: "lowpass", sampleRateHz: 1e8, cutoffHz: 1e7, transitionHz: 5e6, stopbandAttenuationDb: 70 },
-      fixedPoint: { fir: { wordLength: 16, fractionLength: 15, signed: true, scaling: "full-scale", rounding: "nearest-even", overflow: "saturate" } },
+      fir: {
+        kind: "design",
+        band: "lowpass",
+        sampleRateHz: 1e8,
+        cutoffHz: 1e7,
+        transitionHz: 5e6,
+        stopbandAttenuationDb: 70,
+      },
+      fixedPoint: {
+        fir: {
+          wordLength: 16,
+          fractionLength: 15,
+          signed: true,
+          scaling: "full-scale",
+          rounding: "nearest-even",
+          overflow: "saturate",
+        },
+      },
       responsePoints: 8192,
       interpolation: 8,
       inputBits: 14,
       limits: {},
     });
     f.source = "upload";
-    f.upload = { uploadId: 7, sampleRateMHz: 100, passLowMHz: 0, passHighMHz: 8, stopLowMHz: 12.5, stopHighMHz: 50 };
+    f.upload = {
+      uploadId: 7,
+      sampleRateMHz: 100,
+      passLowMHz: 0,
+      passHighMHz: 8,
+      stopLowMHz: 12.5,
+      stopHighMHz: 50,
+    };
     f.limits.stopbandAttenuationDbMin = 60;
     expect(CreateDesignSchema.parse(toCreateInput(f)).content).toMatchObject({
-      fir: { kind: "upload", uploadId: 7, sampleRateHz: 1e8, passbands: [[0, 8e6]], stopbands: [[12.5e6, 5e7]] },
+      fir: {
+        kind: "upload",
+        uploadId: 7,
+        sampleRateHz: 1e8,
+        passbands: [[0, 8e6]],
+        stopbands: [[12.5e6, 5e7]],
+      },
       limits: { stopbandAttenuationDbMin: 60 },
     });
   });
@@ -190,14 +265,23 @@ describe("form → CreateDesignSchema mapping", () => {
       fixedPoint: { rx: { wordLength: { message: expect.stringMatching(/32/) } } },
     });
     // The server's 400 details carry the same paths (no union wrapper): they land on the same fields.
-    expect(fieldMessages(v, [{ path: ["content", "tx", "pulseWidthS"], message: "too long" }, { path: ["name"], message: "taken" }])).toEqual({
+    expect(
+      fieldMessages(v, [
+        { path: ["content", "tx", "pulseWidthS"], message: "too long" },
+        { path: ["name"], message: "taken" },
+      ]),
+    ).toEqual({
       "lfm.pulseWidthUs": "too long",
       name: "taken",
     });
     const p = { ...v, generator: "phase-code" as const };
     expect(formPathOf(p, ["content", "tx", "code", "order"])).toBe("phaseCode.barkerLength");
-    expect(formPathOf({ ...p, phaseCode: { ...p.phaseCode, code: "frank" } }, ["content", "tx", "code", "order"])).toBe("phaseCode.order");
-    expect(formPathOf({ ...v, kind: "filter", source: "upload" }, ["content", "fir", "stopbands", 0, 1])).toBe("upload.stopHighMHz");
+    expect(
+      formPathOf({ ...p, phaseCode: { ...p.phaseCode, code: "frank" } }, ["content", "tx", "code", "order"]),
+    ).toBe("phaseCode.order");
+    expect(
+      formPathOf({ ...v, kind: "filter", source: "upload" }, ["content", "fir", "stopbands", 0, 1]),
+    ).toBe("upload.stopHighMHz");
     expect(formPathOf(v, ["content", "limits", "pslDbMax"])).toBe("limits.pslDbMax");
     expect(formPathOf(v, ["content", "rx", "window", "nbar"])).toBe("rxWindow.nbar");
   });

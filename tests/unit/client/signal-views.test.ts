@@ -57,7 +57,9 @@ describe("fromInterleavedBytes", () => {
     const values = [1.5, -2.25, Math.PI, -0, 1e-300, -123456789.125];
     const buf = Buffer.alloc(values.length * 8);
     values.forEach((v, i) => buf.writeDoubleLE(v, 8 * i));
-    const { re, im } = fromInterleavedBytes(buf.buffer.slice(buf.byteOffset, buf.byteOffset + buf.byteLength));
+    const { re, im } = fromInterleavedBytes(
+      buf.buffer.slice(buf.byteOffset, buf.byteOffset + buf.byteLength),
+    );
     expect(Array.from(re)).toEqual([1.5, Math.PI, 1e-300]);
     expect(Array.from(im)).toEqual([-2.25, -0, -123456789.125]);
   });
@@ -80,7 +82,10 @@ describe("spectrumDb", () => {
   it("matches a naive DFT of a seeded random complex signal, fftshifted and normalized to 0 dB", () => {
     const rnd = lcg(42);
     const n = 37;
-    const s: Samples = { re: Float64Array.from({ length: n }, rnd), im: Float64Array.from({ length: n }, rnd) };
+    const s: Samples = {
+      re: Float64Array.from({ length: n }, rnd),
+      im: Float64Array.from({ length: n }, rnd),
+    };
     const fs = 5e6;
     const size = 64;
     const { freqMHz, db } = spectrumDb(s, fs, size);
@@ -163,7 +168,10 @@ describe("instantaneousFrequencyMHz", () => {
   });
 
   it("a zero sample keeps the previous estimate", () => {
-    const { values } = instantaneousFrequencyMHz({ re: Float64Array.of(1, 0, 0, 1), im: Float64Array.of(0, 1, 0, 0) }, 4e6);
+    const { values } = instantaneousFrequencyMHz(
+      { re: Float64Array.of(1, 0, 0, 1), im: Float64Array.of(0, 1, 0, 0) },
+      4e6,
+    );
     expect(Array.from(values)).toEqual([1, 1, 1]);
   });
 });
@@ -187,7 +195,10 @@ describe("firResponseDb", () => {
 
   it("complex taps show −fs/2 … fs/2 and match a naive DFT", () => {
     const rnd = lcg(7);
-    const taps: Samples = { re: Float64Array.from({ length: 11 }, rnd), im: Float64Array.from({ length: 11 }, rnd) };
+    const taps: Samples = {
+      re: Float64Array.from({ length: 11 }, rnd),
+      im: Float64Array.from({ length: 11 }, rnd),
+    };
     const { freqMHz, db } = firResponseDb(taps, 8e6, true, 16);
     expect(freqMHz.length).toBe(16);
     expect(freqMHz[0]).toBe(-4);
@@ -243,6 +254,7 @@ describe("plotCsv", () => {
       [Float64Array.of(0.1, -1 / 3), Float64Array.of(2 ** -52, 1e21)],
     );
     expect(csv).toBe("Time (µs),I,Q\r\n0,0.1,2.220446049250313e-16\r\n0.08,-0.3333333333333333,1e+21\r\n");
-    for (const line of csv.trim().split("\r\n").slice(1)) for (const v of line.split(",")) expect(Number.isFinite(Number(v))).toBe(true);
+    for (const line of csv.trim().split("\r\n").slice(1))
+      for (const v of line.split(",")) expect(Number.isFinite(Number(v))).toBe(true);
   });
 });

@@ -80,23 +80,28 @@ describe("parseCoefficients: accepted formats", () => {
 });
 
 describe("parseCoefficients: refused files name the line and column", () => {
-  it("a word where a number belongs", () => expectError("1\n2\nabc\n", /line 3, column 1: expected a number, found "abc"/, 3, 1));
-  it("the second field of a pair", () => expectError("1 2\n3 x4\n", /line 2, column 3: expected a number, found "x4"/, 2, 3));
+  it("a word where a number belongs", () =>
+    expectError("1\n2\nabc\n", /line 3, column 1: expected a number, found "abc"/, 3, 1));
+  it("the second field of a pair", () =>
+    expectError("1 2\n3 x4\n", /line 2, column 3: expected a number, found "x4"/, 2, 3));
   it("NaN and infinities", () => {
     expectError("1\nNaN\n", /line 2, column 1: "NaN" is not allowed: values must be finite/, 2, 1);
     expectError("1,inf\n", /"inf" is not allowed/, 1, 3);
     expectError("-Infinity\n", /not allowed/, 1, 1);
     expectError("1e999\n", /too large/, 1, 1);
   });
-  it("ragged columns", () => expectError("1,2\n3,4\n5\n", /line 3, column 2: expected 2 columns as on line 1, found 1/, 3, 2));
-  it("too many columns without a header", () => expectError("1 2 3\n", /expected one value \(real\) or two \(I and Q\) per line, found 3/, 1, 5));
+  it("ragged columns", () =>
+    expectError("1,2\n3,4\n5\n", /line 3, column 2: expected 2 columns as on line 1, found 1/, 3, 2));
+  it("too many columns without a header", () =>
+    expectError("1 2 3\n", /expected one value \(real\) or two \(I and Q\) per line, found 3/, 1, 5));
   it("an empty file and a comment-only file", () => {
     expectError("", /no values/);
     expectError("# nothing\n\n", /no values/);
     expectError("[]", /no values/);
     expectError("i,q\n", /header but no values/);
   });
-  it("bad complex text", () => expectError("1+2j\n3+j4\n", /line 2, column 1: expected a complex number/, 2, 1));
+  it("bad complex text", () =>
+    expectError("1+2j\n3+j4\n", /line 2, column 1: expected a complex number/, 2, 1));
   it("bad JSON with its position", () => {
     expectError("[1, 2,\n 3,, 4]", /invalid JSON: unexpected character ","/, 2, 4);
     expectError("[1, 2", /unexpected end of file/, 1, 6);

@@ -74,7 +74,14 @@ describe("analyze: FIR low-pass", () => {
   it("meets its Kaiser design attenuation in float and loses it gracefully in fixed point", () => {
     const r = analyze({
       kind: "filter",
-      fir: { kind: "design", band: "lowpass", sampleRateHz: 100e6, cutoffHz: 12.5e6, transitionHz: 5e6, stopbandAttenuationDb: 60 },
+      fir: {
+        kind: "design",
+        band: "lowpass",
+        sampleRateHz: 100e6,
+        cutoffHz: 12.5e6,
+        transitionHz: 5e6,
+        stopbandAttenuationDb: 60,
+      },
       fixedPoint: { fir: { wordLength: 16, fractionLength: 15 } },
       limits: { stopbandAttenuationDbMin: 55, passbandRippleDbMax: 0.05 },
       sweep: { minBits: 6, maxBits: 18 },

@@ -6,7 +6,11 @@ import { describe, expect, it } from "vitest";
 const root = fileURLToPath(new URL("../../..", import.meta.url));
 const fixture = fileURLToPath(new URL("./fixtures/lfm-taylor.json", import.meta.url));
 const run = (args: string[], input?: string) =>
-  spawnSync(process.execPath, ["--import", "tsx", "scripts/analyze.ts", ...args], { cwd: root, input, encoding: "utf8" });
+  spawnSync(process.execPath, ["--import", "tsx", "scripts/analyze.ts", ...args], {
+    cwd: root,
+    input,
+    encoding: "utf8",
+  });
 
 describe("scripts/analyze.ts", () => {
   it("prints the analysis of a spec file", () => {

@@ -13,7 +13,13 @@ import {
 } from "@shared/dsp/compression";
 import { matchedFilter } from "@shared/dsp/matched-filter";
 import { linearFm } from "@shared/dsp/lfm";
-import { measureInterpolated, measureResponse, measureResponseDirect, measureSpectrum, type ResponseMetrics } from "@shared/dsp/metrics";
+import {
+  measureInterpolated,
+  measureResponse,
+  measureResponseDirect,
+  measureSpectrum,
+  type ResponseMetrics,
+} from "@shared/dsp/metrics";
 import { phaseCode } from "@shared/dsp/phase-codes";
 
 // The performance paths (docs/analysis.md, "Speed") against the straightforward computations.
@@ -145,7 +151,9 @@ describe("one-pass measureResponse vs the straightforward passes", () => {
       [barker, matchedFilter(barker)],
     ] as const) {
       const size = convolutionSize(s.re.length);
-      const p = powerOf(interpolateSpectrumPadded(multiplySpectra(spectrumOf(s, size), spectrumOf(h, size)), 8));
+      const p = powerOf(
+        interpolateSpectrumPadded(multiplySpectra(spectrumOf(s, size), spectrumOf(h, size)), 8),
+      );
       expectSameFigures(measureResponse(p, opts), measureResponseDirect(p, opts));
     }
   });
@@ -176,11 +184,14 @@ describe("one-pass measureResponse vs the straightforward passes", () => {
 
   it("agrees on arbitrary non-negative grids (fast-check)", () => {
     fc.assert(
-      fc.property(fc.array(fc.double({ min: 0, max: 1e6, noNaN: true }), { minLength: 2, maxLength: 1500 }), (v) => {
-        const p = Float64Array.from(v);
-        if (!(Math.max(...v) > 0)) return;
-        expectSameFigures(measureResponse(p, opts), measureResponseDirect(p, opts), p);
-      }),
+      fc.property(
+        fc.array(fc.double({ min: 0, max: 1e6, noNaN: true }), { minLength: 2, maxLength: 1500 }),
+        (v) => {
+          const p = Float64Array.from(v);
+          if (!(Math.max(...v) > 0)) return;
+          expectSameFigures(measureResponse(p, opts), measureResponseDirect(p, opts), p);
+        },
+      ),
       { numRuns: 300 },
     );
   });
@@ -209,9 +220,12 @@ describe("analyze() against the textbook computation", () => {
     const s = linearFm({ bandwidthHz: 10e6, pulseWidthS: 4096 / 12.5e6, sampleRateHz: 12.5e6 });
     const h = matchedFilter(s, { kind: "taylor", nbar: 5, sidelobeDb: -35 });
     const size = convolutionSize(s.re.length);
-    const p = powerOf(interpolateSpectrumPadded(multiplySpectra(spectrumOf(s, size), spectrumOf(h, size)), 8));
+    const p = powerOf(
+      interpolateSpectrumPadded(multiplySpectra(spectrumOf(s, size), spectrumOf(h, size)), 8),
+    );
     const ref = measureResponseDirect(p, { interpolation: 8, sampleRateHz: 12.5e6, expectedIndex: 4095 * 8 });
-    for (const k of ["peakPositionSamples", "width3dbSamples", "pslDb"] as const) expect(r.float[k]).toBeCloseTo(ref[k], 9);
+    for (const k of ["peakPositionSamples", "width3dbSamples", "pslDb"] as const)
+      expect(r.float[k]).toBeCloseTo(ref[k], 9);
     expect(Math.abs(r.float.islrDb! - ref.islrDb)).toBeLessThan(1e-9);
     expect(Math.abs(r.float.peakAmplitude! / ref.peakAmplitude - 1)).toBeLessThan(1e-12);
   });

@@ -16,7 +16,8 @@ function response(h: Float64Array, size = 16384): Float64Array {
 function peakError(mag: Float64Array, fs: number, inBand: (f: number) => boolean, target: number): number {
   const size = 2 * (mag.length - 1);
   let e = 0;
-  for (let k = 0; k < mag.length; k++) if (inBand((k * fs) / size)) e = Math.max(e, Math.abs(mag[k]! - target));
+  for (let k = 0; k < mag.length; k++)
+    if (inBand((k * fs) / size)) e = Math.max(e, Math.abs(mag[k]! - target));
   return e;
 }
 
@@ -38,7 +39,13 @@ describe("windowed-sinc design", () => {
   it("the O&S example meets 60 dB in its stopband (16384-point response)", () => {
     // ωp = 0.4π, ωs = 0.6π → fs = 2, cutoff 0.5, transition 0.2. Measured: stopband 60.35 dB below 1,
     // passband peak error 0.00113 (δ = 0.001 requested: the window method's ripple is about equal in both bands).
-    const d = designFir({ band: "lowpass", sampleRateHz: 2, cutoffHz: 0.5, transitionHz: 0.2, stopbandAttenuationDb: 60 });
+    const d = designFir({
+      band: "lowpass",
+      sampleRateHz: 2,
+      cutoffHz: 0.5,
+      transitionHz: 0.2,
+      stopbandAttenuationDb: 60,
+    });
     expect(d.order).toBe(37);
     expect(d.taps.length).toBe(38);
     expect(d.beta).toBeCloseTo(5.65326, 5);
@@ -52,7 +59,13 @@ describe("windowed-sinc design", () => {
     // Measured (65536 points): worst shortfall 0.94 dB (A = 80, Δf = 0.1·fs/2 … A 79.06); many exceed A.
     for (const a of [30, 40, 50, 60, 80, 100]) {
       for (const tr of [0.05, 0.1, 0.2]) {
-        const d = designFir({ band: "lowpass", sampleRateHz: 2, cutoffHz: 0.4, transitionHz: tr, stopbandAttenuationDb: a });
+        const d = designFir({
+          band: "lowpass",
+          sampleRateHz: 2,
+          cutoffHz: 0.4,
+          transitionHz: tr,
+          stopbandAttenuationDb: a,
+        });
         const stop = peakError(response(d.taps, 65536), 2, (f) => f >= 0.4 + tr / 2, 0);
         expect(-20 * Math.log10(stop)).toBeGreaterThanOrEqual(a - 1);
       }
@@ -114,17 +127,36 @@ describe("windowed-sinc design", () => {
   });
 
   it("low-pass DC gain is 1 within the ripple, taps symmetric", () => {
-    const d = designFir({ band: "lowpass", sampleRateHz: 48e3, cutoffHz: 6e3, transitionHz: 2e3, stopbandAttenuationDb: 70 });
+    const d = designFir({
+      band: "lowpass",
+      sampleRateHz: 48e3,
+      cutoffHz: 6e3,
+      transitionHz: 2e3,
+      stopbandAttenuationDb: 70,
+    });
     const dc = d.taps.reduce((a, b) => a + b, 0);
     expect(Math.abs(dc - 1)).toBeLessThan(10 ** (-70 / 20) * 2);
     for (let n = 0; n <= d.order; n++) expect(d.taps[n]).toBe(d.taps[d.order - n]);
-    const t = designFir({ band: "lowpass", sampleRateHz: 48e3, cutoffHz: 6e3, transitionHz: 2e3, stopbandAttenuationDb: 70, taps: 64 });
+    const t = designFir({
+      band: "lowpass",
+      sampleRateHz: 48e3,
+      cutoffHz: 6e3,
+      transitionHz: 2e3,
+      stopbandAttenuationDb: 70,
+      taps: 64,
+    });
     expect(t.taps.length).toBe(64);
   });
 });
 
 describe("bad input names the parameter", () => {
-  const ok: FirDesignOptions = { band: "lowpass", sampleRateHz: 1000, cutoffHz: 100, transitionHz: 20, stopbandAttenuationDb: 60 };
+  const ok: FirDesignOptions = {
+    band: "lowpass",
+    sampleRateHz: 1000,
+    cutoffHz: 100,
+    transitionHz: 20,
+    stopbandAttenuationDb: 60,
+  };
   it("throws RangeError/TypeError", () => {
     expect(() => kaiserBeta(Number.NaN)).toThrow(/attenuationDb/);
     expect(() => kaiserOrder(60, 0)).toThrow(/transitionWidthRad/);
@@ -139,7 +171,9 @@ describe("bad input names the parameter", () => {
     expect(() => designFir({ ...ok, stopbandAttenuationDb: Infinity })).toThrow(/stopbandAttenuationDb/);
     expect(() => designFir({ ...ok, taps: 1 })).toThrow(/taps/);
     expect(() => designFir({ ...ok, window: { kind: "chebyshev", attenuationDb: 60 } })).toThrow(/taps/);
-    expect(() => designFir({ ...ok, band: "bandpass", lowCutoffHz: 200, highCutoffHz: 210 })).toThrow(/highCutoffHz/);
+    expect(() => designFir({ ...ok, band: "bandpass", lowCutoffHz: 200, highCutoffHz: 210 })).toThrow(
+      /highCutoffHz/,
+    );
     expect(() => designFir({ ...ok, band: "bandpass", lowCutoffHz: 200 })).toThrow(/highCutoffHz/);
   });
 });

@@ -77,7 +77,10 @@ describe("linear FM", () => {
 
   it("sweeps −B/2 → +B/2 linearly at B/T Hz/s (up) and the reverse (down) — Richards 2014 §4.6", () => {
     const up = instFreq(linearFm({ bandwidthHz: B, pulseWidthS: T, sampleRateHz: fs }), fs);
-    const down = instFreq(linearFm({ bandwidthHz: B, pulseWidthS: T, sampleRateHz: fs, direction: "down" }), fs);
+    const down = instFreq(
+      linearFm({ bandwidthHz: B, pulseWidthS: T, sampleRateHz: fs, direction: "down" }),
+      fs,
+    );
     const n = 250;
     const slope = B / T;
     for (let i = 0; i < up.length; i++) {
@@ -95,7 +98,13 @@ describe("linear FM", () => {
   it("real output at an IF: im = 0 and the spectrum is centred at f_IF", () => {
     const fIf = 10e6;
     const rate = 50e6;
-    const s = linearFm({ bandwidthHz: B, pulseWidthS: T, sampleRateHz: rate, output: "real", intermediateFrequencyHz: fIf });
+    const s = linearFm({
+      bandwidthHz: B,
+      pulseWidthS: T,
+      sampleRateHz: rate,
+      output: "real",
+      intermediateFrequencyHz: fIf,
+    });
     expect(s.re.length).toBe(1000);
     expect(s.im.every((v) => v === 0)).toBe(true);
     const size = 8192;
@@ -174,7 +183,9 @@ describe("matched filter h[n] = w[n]·conj(s[N−1−n])", () => {
 
   it("rejects bad signals", () => {
     expect(() => matchedFilter({ re: new Float64Array(0), im: new Float64Array(0) })).toThrow(/s\.re/);
-    expect(() => matchedFilter({ re: Float64Array.of(1, Number.NaN), im: Float64Array.of(0, 0) })).toThrow(/s\.re\[1\]/);
+    expect(() => matchedFilter({ re: Float64Array.of(1, Number.NaN), im: Float64Array.of(0, 0) })).toThrow(
+      /s\.re\[1\]/,
+    );
     expect(() => matchedFilter({ re: Float64Array.of(1, 2), im: Float64Array.of(0) })).toThrow(RangeError);
   });
 });
@@ -193,9 +204,9 @@ describe("linear FM bad input names the parameter", () => {
     expect(() => linearFm({ ...ok, pulseWidthS: 10 })).toThrow(/at most|must be in/);
     expect(() => linearFm({ ...ok, output: "real" })).toThrow(/intermediateFrequencyHz/);
     expect(() => linearFm({ ...ok, output: "real", intermediateFrequencyHz: 5e6 })).toThrow(/sampleRateHz/);
-    expect(() => linearFm({ ...ok, sampleRateHz: 20e6, output: "real", intermediateFrequencyHz: 0.2e6 })).toThrow(
-      /intermediateFrequencyHz/,
-    );
+    expect(() =>
+      linearFm({ ...ok, sampleRateHz: 20e6, output: "real", intermediateFrequencyHz: 0.2e6 }),
+    ).toThrow(/intermediateFrequencyHz/);
     expect(() => linearFm({ ...ok, direction: "sideways" as "up" })).toThrow(TypeError);
     expect(() => linearFm({ ...ok, bandwidthHz: "1e6" as unknown as number })).toThrow(TypeError);
   });
@@ -321,7 +332,10 @@ describe("polyphase codes", () => {
     const p4 = phaseCode({ kind: "p4", length: n });
     const lfm = linearFm({ bandwidthHz: 1, pulseWidthS: n, sampleRateHz: 1 });
     const prodPhase = (i: number) =>
-      Math.atan2(p4.im[i]! * lfm.re[i]! - p4.re[i]! * lfm.im[i]!, p4.re[i]! * lfm.re[i]! + p4.im[i]! * lfm.im[i]!);
+      Math.atan2(
+        p4.im[i]! * lfm.re[i]! - p4.re[i]! * lfm.im[i]!,
+        p4.re[i]! * lfm.re[i]! + p4.im[i]! * lfm.im[i]!,
+      );
     for (let i = 1; i < n; i++) {
       const d = prodPhase(i) - prodPhase(i - 1);
       const wrapped = Math.atan2(Math.sin(d), Math.cos(d));
@@ -346,7 +360,9 @@ describe("polyphase codes", () => {
     expect(() => phaseCode({ kind: "p3", length: Number.NaN })).toThrow(/code\.length/);
     expect(() => phaseCode({ kind: "p4", length: 0 })).toThrow(/code\.length/);
     expect(() => phaseCode({ kind: "barker", length: 13 }, { samplesPerChip: 0 })).toThrow(/samplesPerChip/);
-    expect(() => phaseCode({ kind: "barker", length: 13 }, { samplesPerChip: Infinity })).toThrow(/samplesPerChip/);
+    expect(() => phaseCode({ kind: "barker", length: 13 }, { samplesPerChip: Infinity })).toThrow(
+      /samplesPerChip/,
+    );
     expect(() => phaseCode({ kind: "golay" } as unknown as PhaseCodeSpec)).toThrow(TypeError);
   });
 });
@@ -356,14 +372,25 @@ describe("nonlinear FM by stationary phase (Cook & Bernfeld 1967; Richards 2014 
 
   it("a rectangular spectral window gives back the linear FM chirp (odd and even N)", () => {
     for (const fs of [3e6, 2e6]) {
-      const s = nonlinearFm({ bandwidthHz: B, pulseWidthS: 1e-4, sampleRateHz: fs, window: { kind: "rectangular" } });
+      const s = nonlinearFm({
+        bandwidthHz: B,
+        pulseWidthS: 1e-4,
+        sampleRateHz: fs,
+        window: { kind: "rectangular" },
+      });
       const l = linearFm({ bandwidthHz: B, pulseWidthS: 1e-4, sampleRateHz: fs });
-      for (let i = 0; i < s.re.length; i++) expect(Math.hypot(s.re[i]! - l.re[i]!, s.im[i]! - l.im[i]!)).toBeLessThan(1e-12);
+      for (let i = 0; i < s.re.length; i++)
+        expect(Math.hypot(s.re[i]! - l.re[i]!, s.im[i]! - l.im[i]!)).toBeLessThan(1e-12);
     }
   });
 
   it("has unit modulus and a monotonic sweep over −B/2..+B/2", () => {
-    const opts = { bandwidthHz: B, pulseWidthS: 2e-4, sampleRateHz: 2e6, window: { kind: "hamming" } } as const;
+    const opts = {
+      bandwidthHz: B,
+      pulseWidthS: 2e-4,
+      sampleRateHz: 2e6,
+      window: { kind: "hamming" },
+    } as const;
     const s = nonlinearFm(opts);
     expect(s.re.length).toBe(400);
     for (let i = 0; i < 400; i++) expect(Math.hypot(s.re[i]!, s.im[i]!)).toBeCloseTo(1, 14);
@@ -379,7 +406,12 @@ describe("nonlinear FM by stationary phase (Cook & Bernfeld 1967; Richards 2014 
     // Stationary phase (Cook & Bernfeld 1967): |S(f)|² ∝ W(f). Averaged over B/10-wide bands to smooth the Fresnel
     // ripple; the Hamming window at x = ¼ or ¾ of its span is 0.54 − 0.46·cos(π/2) = 0.54 (derived). Measured −2.64 dB.
     const fs = 4e6;
-    const s = nonlinearFm({ bandwidthHz: B, pulseWidthS: 1e-3, sampleRateHz: fs, window: { kind: "hamming" } });
+    const s = nonlinearFm({
+      bandwidthHz: B,
+      pulseWidthS: 1e-3,
+      sampleRateHz: fs,
+      window: { kind: "hamming" },
+    });
     const size = 16384;
     const x = fftInterleaved(toInterleaved(s, size));
     const bandPower = (fc: number) => {
@@ -391,7 +423,8 @@ describe("nonlinear FM by stationary phase (Cook & Bernfeld 1967; Richards 2014 
       return p;
     };
     const centre = bandPower(0);
-    for (const fc of [-B / 4, B / 4]) expect(Math.abs(10 * Math.log10(bandPower(fc) / centre) - 10 * Math.log10(0.54))).toBeLessThan(0.3);
+    for (const fc of [-B / 4, B / 4])
+      expect(Math.abs(10 * Math.log10(bandPower(fc) / centre) - 10 * Math.log10(0.54))).toBeLessThan(0.3);
   });
 
   it("autocorrelation PSL is far below the LFM's at BT = 100 and nears the window's level as BT grows", () => {

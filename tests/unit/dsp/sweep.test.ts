@@ -2,7 +2,13 @@ import { describe, expect, it } from "vitest";
 import { convolutionSize, multiplySpectra, spectrumOf } from "@shared/dsp/compression";
 import { measureSpectrum } from "@shared/dsp/metrics";
 import { quantize } from "@shared/dsp/quantize";
-import { confirmSmallest, fullResponse, prepareSweep, refinedResponse, type SweepRow } from "@shared/dsp/sweep";
+import {
+  confirmSmallest,
+  fullResponse,
+  prepareSweep,
+  refinedResponse,
+  type SweepRow,
+} from "@shared/dsp/sweep";
 import type { ComplexSignal, FixedPointSpec } from "@shared/dsp/types";
 
 // Chirp and Hamming-weighted matched filter from their formulas (independent of the generator modules).
@@ -49,7 +55,14 @@ describe("refined sweep vs the full ×U computation", () => {
       sampleRateHz: os,
       expectedIndex: (n - 1) * u,
     });
-    const ctx = prepareSweep({ floatFine: fl.y, floatMetrics: fl.metrics, size, interpolation: u, sampleRateHz: os, expectedIndex: (n - 1) * u });
+    const ctx = prepareSweep({
+      floatFine: fl.y,
+      floatMetrics: fl.metrics,
+      size,
+      interpolation: u,
+      sampleRateHz: os,
+      expectedIndex: (n - 1) * u,
+    });
     let worstPsl = 0;
     for (let w = 4; w <= 16; w++) {
       const prod = multiplySpectra(sSpec, spectrumOf(fixedOf(h, w), size));
@@ -73,13 +86,16 @@ describe("confirmSmallest", () => {
     const truth = (w: number) => ({ figures: { w }, pass: w >= 9 });
     for (const claimed of [8, 11, 30]) {
       const rows: SweepRow<{ w: number }>[] = [];
-      for (let w = 6; w <= 16; w++) rows.push({ wordLength: w, figures: { w }, pass: w >= claimed, method: "refined" });
+      for (let w = 6; w <= 16; w++)
+        rows.push({ wordLength: w, figures: { w }, pass: w >= claimed, method: "refined" });
       expect(confirmSmallest(rows, truth)).toBe(9);
       expect(rows.find((r) => r.wordLength === 9)!.method).toBe("full");
       expect(rows.find((r) => r.wordLength === 8)!.method).toBe("full");
       expect(rows.find((r) => r.wordLength === 8)!.pass).toBe(false);
     }
-    const none: SweepRow<{ w: number }>[] = [{ wordLength: 6, figures: { w: 6 }, pass: false, method: "refined" }];
+    const none: SweepRow<{ w: number }>[] = [
+      { wordLength: 6, figures: { w: 6 }, pass: false, method: "refined" },
+    ];
     expect(confirmSmallest(none, (w) => ({ figures: { w }, pass: false }))).toBeNull();
   });
 });

@@ -42,22 +42,83 @@ function figures(w: Float64Array) {
     s += v;
     s2 += v * v;
   }
-  return { sidelobeDb: db(side / peak), cg: s / w.length, enbw: (w.length * s2) / (s * s), bw3: (2 * half) / binsPerBin };
+  return {
+    sidelobeDb: db(side / peak),
+    cg: s / w.length,
+    enbw: (w.length * s2) / (s * s),
+    bw3: (2 * half) / binsPerBin,
+  };
 }
 
 // Harris 1978, Table I (large N, periodic windows). sl: published highest sidelobe; slTol: ±0.1 dB where
 // REFERENCES.md gives the exact level, ±1 dB where Harris prints whole dB only. CG/ENBW ±0.02, 3-dB width ±0.06 bins.
-const HARRIS: { name: string; spec: WindowSpec; sl: number; slTol: number; cg: number; enbw: number; bw3: number }[] = [
-  { name: "rectangular", spec: { kind: "rectangular" }, sl: -13.26, slTol: 0.1, cg: 1.0, enbw: 1.0, bw3: 0.89 },
+const HARRIS: {
+  name: string;
+  spec: WindowSpec;
+  sl: number;
+  slTol: number;
+  cg: number;
+  enbw: number;
+  bw3: number;
+}[] = [
+  {
+    name: "rectangular",
+    spec: { kind: "rectangular" },
+    sl: -13.26,
+    slTol: 0.1,
+    cg: 1.0,
+    enbw: 1.0,
+    bw3: 0.89,
+  },
   { name: "Hann", spec: { kind: "hann" }, sl: -31.47, slTol: 0.1, cg: 0.5, enbw: 1.5, bw3: 1.44 },
   { name: "Hamming", spec: { kind: "hamming" }, sl: -42.67, slTol: 0.1, cg: 0.54, enbw: 1.36, bw3: 1.3 },
   { name: "Blackman", spec: { kind: "blackman" }, sl: -58.11, slTol: 0.1, cg: 0.42, enbw: 1.73, bw3: 1.66 },
-  { name: "Blackman-Harris 4-term", spec: { kind: "blackman-harris" }, sl: -92, slTol: 1, cg: 0.36, enbw: 2.0, bw3: 1.9 },
-  { name: "Kaiser α=2", spec: { kind: "kaiser", beta: 2 * Math.PI }, sl: -46, slTol: 1, cg: 0.49, enbw: 1.5, bw3: 1.43 },
-  { name: "Kaiser α=3", spec: { kind: "kaiser", beta: 3 * Math.PI }, sl: -69, slTol: 1, cg: 0.4, enbw: 1.8, bw3: 1.71 },
+  {
+    name: "Blackman-Harris 4-term",
+    spec: { kind: "blackman-harris" },
+    sl: -92,
+    slTol: 1,
+    cg: 0.36,
+    enbw: 2.0,
+    bw3: 1.9,
+  },
+  {
+    name: "Kaiser α=2",
+    spec: { kind: "kaiser", beta: 2 * Math.PI },
+    sl: -46,
+    slTol: 1,
+    cg: 0.49,
+    enbw: 1.5,
+    bw3: 1.43,
+  },
+  {
+    name: "Kaiser α=3",
+    spec: { kind: "kaiser", beta: 3 * Math.PI },
+    sl: -69,
+    slTol: 1,
+    cg: 0.4,
+    enbw: 1.8,
+    bw3: 1.71,
+  },
   // Chebyshev sidelobes are checked on the symmetric form below (the periodic cut is no longer equiripple).
-  { name: "Dolph-Chebyshev 50 dB", spec: { kind: "chebyshev", attenuationDb: 50 }, sl: NaN, slTol: 0, cg: 0.53, enbw: 1.39, bw3: 1.33 },
-  { name: "Dolph-Chebyshev 70 dB", spec: { kind: "chebyshev", attenuationDb: 70 }, sl: NaN, slTol: 0, cg: 0.45, enbw: 1.62, bw3: 1.55 },
+  {
+    name: "Dolph-Chebyshev 50 dB",
+    spec: { kind: "chebyshev", attenuationDb: 50 },
+    sl: NaN,
+    slTol: 0,
+    cg: 0.53,
+    enbw: 1.39,
+    bw3: 1.33,
+  },
+  {
+    name: "Dolph-Chebyshev 70 dB",
+    spec: { kind: "chebyshev", attenuationDb: 70 },
+    sl: NaN,
+    slTol: 0,
+    cg: 0.45,
+    enbw: 1.62,
+    bw3: 1.55,
+  },
 ];
 
 describe("windows vs Harris 1978 Table I (N = 1024 periodic, zero-padded ×16)", () => {
@@ -85,7 +146,9 @@ describe("Dolph-Chebyshev against a direct evaluation of its defining spectrum",
   // Independent computation: the window's DTFT at ω_k = 2πk/N must equal T_{N−1}(x0·cos(πk/N)) up to one scale
   // factor (Harris 1978 eq. 44), with the linear phase of a window centred at (N−1)/2 removed.
   const chebT = (m: number, x: number) =>
-    Math.abs(x) <= 1 ? Math.cos(m * Math.acos(x)) : Math.sign(x) ** m * Math.cosh(m * Math.acosh(Math.abs(x)));
+    Math.abs(x) <= 1
+      ? Math.cos(m * Math.acos(x))
+      : Math.sign(x) ** m * Math.cosh(m * Math.acosh(Math.abs(x)));
   for (const n of [7, 8, 21, 40]) {
     it(`N = ${n}`, () => {
       const att = 45;
@@ -98,7 +161,9 @@ describe("Dolph-Chebyshev against a direct evaluation of its defining spectrum",
         const want = chebT(n - 1, x0 * Math.cos((Math.PI * k) / n));
         // For even N the centred DTFT picks up (−1)^k relative to T_{N−1} at k > N/2; compare magnitudes.
         if (k === 0) scale = re / want;
-        expect(Math.abs(Math.abs(re) - Math.abs(scale * want))).toBeLessThan(1e-9 * Math.abs(scale * chebT(n - 1, x0)));
+        expect(Math.abs(Math.abs(re) - Math.abs(scale * want))).toBeLessThan(
+          1e-9 * Math.abs(scale * chebT(n - 1, x0)),
+        );
       }
       for (let i = 0; i < n; i++) expect(w[i]).toBeCloseTo(w[n - 1 - i]!, 12);
     });

@@ -21,7 +21,8 @@ function ChangePasswordForm() {
   });
   const { errors } = form.formState;
   const server = fieldErrors(change.error);
-  const general = change.error instanceof ApiError && Object.keys(server).length === 0 ? change.error.message : undefined;
+  const general =
+    change.error instanceof ApiError && Object.keys(server).length === 0 ? change.error.message : undefined;
   return (
     <form
       noValidate
@@ -37,12 +38,30 @@ function ChangePasswordForm() {
     >
       <Field label="Current password" error={errors.currentPassword?.message ?? server.currentPassword}>
         {({ id, describedBy, invalid }) => (
-          <Input id={id} type="password" autoComplete="current-password" aria-describedby={describedBy} invalid={invalid} {...form.register("currentPassword")} />
+          <Input
+            id={id}
+            type="password"
+            autoComplete="current-password"
+            aria-describedby={describedBy}
+            invalid={invalid}
+            {...form.register("currentPassword")}
+          />
         )}
       </Field>
-      <Field label="New password" hint="At least 10 characters." error={errors.newPassword?.message ?? server.newPassword}>
+      <Field
+        label="New password"
+        hint="At least 10 characters."
+        error={errors.newPassword?.message ?? server.newPassword}
+      >
         {({ id, describedBy, invalid }) => (
-          <Input id={id} type="password" autoComplete="new-password" aria-describedby={describedBy} invalid={invalid} {...form.register("newPassword")} />
+          <Input
+            id={id}
+            type="password"
+            autoComplete="new-password"
+            aria-describedby={describedBy}
+            invalid={invalid}
+            {...form.register("newPassword")}
+          />
         )}
       </Field>
       {general && (

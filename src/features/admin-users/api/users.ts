@@ -1,6 +1,11 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { z } from "zod";
-import { CreatedUserSchema, UserSchema, type CreateUserInput, type UpdateUserInput } from "@shared/schemas/users";
+import {
+  CreatedUserSchema,
+  UserSchema,
+  type CreateUserInput,
+  type UpdateUserInput,
+} from "@shared/schemas/users";
 import { api } from "@/lib/api-client";
 
 /** Query keys for users (admin). */
@@ -28,7 +33,8 @@ export function useUsers() {
 export function useCreateUser() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (input: CreateUserInput) => api("/admin/users", { method: "POST", body: input, schema: CreatedUserSchema }),
+    mutationFn: (input: CreateUserInput) =>
+      api("/admin/users", { method: "POST", body: input, schema: CreatedUserSchema }),
     onSuccess: () => qc.invalidateQueries({ queryKey: userKeys.all }),
   });
 }
@@ -38,8 +44,14 @@ export function useUpdateUser() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: ({ id, patch }: { id: number; patch: UpdateUserInput }) =>
-      api(`/admin/users/${id}`, { method: "PATCH", body: patch, schema: UserEnvelopeSchema }).then((r) => r.user),
+      api(`/admin/users/${id}`, { method: "PATCH", body: patch, schema: UserEnvelopeSchema }).then(
+        (r) => r.user,
+      ),
     // Home counts users and sessions, so it goes stale too.
-    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: userKeys.all }), qc.invalidateQueries({ queryKey: ["home"] })]),
+    onSuccess: () =>
+      Promise.all([
+        qc.invalidateQueries({ queryKey: userKeys.all }),
+        qc.invalidateQueries({ queryKey: ["home"] }),
+      ]),
   });
 }

@@ -20,7 +20,8 @@ export function CreateUserDialog({ open, onClose }: { open: boolean; onClose: ()
   });
   const { errors } = form.formState;
   const server = fieldErrors(create.error);
-  const general = create.error instanceof ApiError && Object.keys(server).length === 0 ? create.error.message : undefined;
+  const general =
+    create.error instanceof ApiError && Object.keys(server).length === 0 ? create.error.message : undefined;
   const close = () => {
     form.reset();
     create.reset();
@@ -45,7 +46,10 @@ export function CreateUserDialog({ open, onClose }: { open: boolean; onClose: ()
           <dd className="font-mono">{user.username}</dd>
           <dt className="text-ink-600">Temporary password</dt>
           <dd className="flex items-center gap-2">
-            <code data-testid="temporary-password" className="rounded bg-paper-200 px-2 py-1 font-mono text-ink-900">
+            <code
+              data-testid="temporary-password"
+              className="rounded bg-paper-200 px-2 py-1 font-mono text-ink-900"
+            >
               {temporaryPassword}
             </code>
             <CopyButton value={temporaryPassword} label="Copy password" />
@@ -61,23 +65,52 @@ export function CreateUserDialog({ open, onClose }: { open: boolean; onClose: ()
       title="New user"
       description="A temporary password is generated for them."
       footer={
-<DialogActions onCancel={close} label="Create user" busy={create.isPending} formId="create-user-form" />
+        <DialogActions
+          onCancel={close}
+          label="Create user"
+          busy={create.isPending}
+          formId="create-user-form"
+        />
       }
     >
-      <form id="create-user-form" noValidate className="flex flex-col gap-3" onSubmit={form.handleSubmit((v) => create.mutate(v))}>
+      <form
+        id="create-user-form"
+        noValidate
+        className="flex flex-col gap-3"
+        onSubmit={form.handleSubmit((v) => create.mutate(v))}
+      >
         <Field label="User name" error={errors.username?.message ?? server.username}>
           {({ id, describedBy, invalid }) => (
-            <Input id={id} autoComplete="off" aria-describedby={describedBy} invalid={invalid} {...form.register("username")} />
+            <Input
+              id={id}
+              autoComplete="off"
+              aria-describedby={describedBy}
+              invalid={invalid}
+              {...form.register("username")}
+            />
           )}
         </Field>
         <Field label="Full name" error={errors.displayName?.message ?? server.displayName}>
           {({ id, describedBy, invalid }) => (
-            <Input id={id} autoComplete="off" aria-describedby={describedBy} invalid={invalid} {...form.register("displayName")} />
+            <Input
+              id={id}
+              autoComplete="off"
+              aria-describedby={describedBy}
+              invalid={invalid}
+              {...form.register("displayName")}
+            />
           )}
         </Field>
         <Field label="E-mail" error={errors.email?.message ?? server.email}>
           {({ id, describedBy, invalid }) => (
-            <Input id={id} type="email" autoComplete="off" aria-describedby={describedBy} invalid={invalid} {...form.register("email")} />
+            <Input
+              id={id}
+              type="email"
+              autoComplete="off"
+              aria-describedby={describedBy}
+              invalid={invalid}
+              {...form.register("email")}
+            />
           )}
         </Field>
         <RoleCheckboxes registration={form.register("roles")} error={errors.roles?.message ?? server.roles} />

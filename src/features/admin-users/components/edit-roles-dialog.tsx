@@ -16,7 +16,10 @@ type RolesForm = z.infer<typeof RolesFormSchema>;
 export function EditRolesDialog({ user, onClose }: { user: User; onClose: () => void }) {
   const toast = useToast();
   const update = useUpdateUser();
-  const form = useForm<RolesForm>({ resolver: zodResolver(RolesFormSchema), defaultValues: { roles: user.roles } });
+  const form = useForm<RolesForm>({
+    resolver: zodResolver(RolesFormSchema),
+    defaultValues: { roles: user.roles },
+  });
   return (
     <Dialog
       open
@@ -24,7 +27,12 @@ export function EditRolesDialog({ user, onClose }: { user: User; onClose: () => 
       title={`Roles of ${user.displayName}`}
       description="Changes apply from their next request."
       footer={
-<DialogActions onCancel={onClose} label="Save roles" busy={update.isPending} formId="edit-roles-form" />
+        <DialogActions
+          onCancel={onClose}
+          label="Save roles"
+          busy={update.isPending}
+          formId="edit-roles-form"
+        />
       }
     >
       <form

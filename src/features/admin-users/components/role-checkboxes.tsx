@@ -3,7 +3,13 @@ import { ROLES } from "@shared/schemas/auth";
 import { ROLE_LABELS } from "@/lib/roles";
 
 /** One checkbox per role inside a fieldset, registered as an array field. */
-export function RoleCheckboxes({ registration, error }: { registration: UseFormRegisterReturn; error?: string | undefined }) {
+export function RoleCheckboxes({
+  registration,
+  error,
+}: {
+  registration: UseFormRegisterReturn;
+  error?: string | undefined;
+}) {
   return (
     <fieldset className="flex flex-col gap-1" aria-describedby={error ? "roles-error" : undefined}>
       <legend className="mb-1 text-xs font-medium text-ink-700">Roles</legend>

@@ -25,7 +25,7 @@ export function SetActiveDialog({ user, onClose }: { user: User; onClose: () => 
       onClose={onClose}
       title={deactivate ? `Deactivate ${user.displayName}?` : `Reactivate ${user.displayName}?`}
       footer={
-<DialogActions
+        <DialogActions
           onCancel={onClose}
           label={deactivate ? "Deactivate" : "Reactivate"}
           variant={deactivate ? "danger" : "primary"}
@@ -38,14 +38,18 @@ export function SetActiveDialog({ user, onClose }: { user: User; onClose: () => 
         {deactivate ? (
           <>
             <p>
-              <strong>Their sessions end now</strong>: any open browser tab of <span className="font-mono">{user.username}</span>{" "}
-              is signed out on its next request, and they can no longer sign in.
+              <strong>Their sessions end now</strong>: any open browser tab of{" "}
+              <span className="font-mono">{user.username}</span> is signed out on its next request, and they
+              can no longer sign in.
             </p>
-            <p className="text-ink-600">Their work, reviews and releases stay. You can reactivate the account later.</p>
+            <p className="text-ink-600">
+              Their work, reviews and releases stay. You can reactivate the account later.
+            </p>
           </>
         ) : (
           <p>
-            <span className="font-mono">{user.username}</span> will be able to sign in again with their current password.
+            <span className="font-mono">{user.username}</span> will be able to sign in again with their
+            current password.
           </p>
         )}
         {update.error instanceof ApiError && (

@@ -23,7 +23,11 @@ export function UsersPage({ currentUserId }: { currentUserId: number }) {
     <>
       <PageHeader
         title="Users"
-        subtitle={users.data ? `${users.data.length} accounts, ${users.data.filter((u) => u.active).length} active` : "Accounts and roles"}
+        subtitle={
+          users.data
+            ? `${users.data.length} accounts, ${users.data.filter((u) => u.active).length} active`
+            : "Accounts and roles"
+        }
         action={
           <Button variant="primary" onClick={() => setCreating(true)}>
             New user
@@ -81,7 +85,12 @@ export function UsersPage({ currentUserId }: { currentUserId: number }) {
                   </Td>
                   <Td className="text-right whitespace-nowrap">
                     <span className="inline-flex gap-1">
-                      <Button size="sm" variant="ghost" onClick={() => setPending({ kind: "roles", user: u })} aria-label={`Edit roles of ${u.username}`}>
+                      <Button
+                        size="sm"
+                        variant="ghost"
+                        onClick={() => setPending({ kind: "roles", user: u })}
+                        aria-label={`Edit roles of ${u.username}`}
+                      >
                         Roles
                       </Button>
                       <Button

@@ -15,7 +15,8 @@ export function pollInterval(analysis: AnalysisStatus | null | undefined): numbe
 export const analysisQueryOptions = (revisionId: number) =>
   queryOptions({
     queryKey: analysisKeys.status(revisionId),
-    queryFn: async ({ signal }) => (await api(`/revisions/${revisionId}/analysis`, { schema: AnalysisResponseSchema, signal })).analysis,
+    queryFn: async ({ signal }) =>
+      (await api(`/revisions/${revisionId}/analysis`, { schema: AnalysisResponseSchema, signal })).analysis,
     staleTime: 0,
     refetchInterval: (query) => pollInterval(query.state.data),
     // Keep polling in a background tab: the toast on completion should not wait for the user to return.

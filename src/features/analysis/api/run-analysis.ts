@@ -7,7 +7,9 @@ import { analysisKeys } from "./keys";
 export function useRunAnalysis(revisionId: number) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: async () => (await api(`/revisions/${revisionId}/analysis`, { method: "POST", schema: AnalysisResponseSchema })).analysis,
+    mutationFn: async () =>
+      (await api(`/revisions/${revisionId}/analysis`, { method: "POST", schema: AnalysisResponseSchema }))
+        .analysis,
     onSuccess: (analysis) => {
       // Seeding the cache starts the polling at once (refetchInterval reads the new state).
       qc.setQueryData(analysisKeys.status(revisionId), analysis);

@@ -27,7 +27,12 @@ export function AnalysisSection({ revisionId }: { revisionId: number }) {
   const active = analysis?.state === "queued" || analysis?.state === "running";
   const action =
     canRun && analysis?.state !== "failed" ? (
-      <Button size="sm" onClick={() => run.mutate()} busy={run.isPending} disabled={status.isPending || active || analysis?.state === "done"}>
+      <Button
+        size="sm"
+        onClick={() => run.mutate()}
+        busy={run.isPending}
+        disabled={status.isPending || active || analysis?.state === "done"}
+      >
         Run analysis
       </Button>
     ) : undefined;
@@ -44,17 +49,30 @@ export function AnalysisSection({ revisionId }: { revisionId: number }) {
       </EmptyState>
     );
   else if (active) body = <AnalysisProgress analysis={analysis} nowMs={Date.now()} />;
-  else if (analysis.state === "failed") body = <AnalysisFailed analysis={analysis} onRetry={() => run.mutate()} busy={run.isPending} canRun={canRun} />;
+  else if (analysis.state === "failed")
+    body = (
+      <AnalysisFailed analysis={analysis} onRetry={() => run.mutate()} busy={run.isPending} canRun={canRun} />
+    );
   else body = <AnalysisDone analysis={analysis} revisionId={revisionId} />;
 
   const detail = revision.data;
-  const authorDraft = detail && detail.revision.state === "draft" && detail.canEdit && hasAnyRole(me.data?.roles ?? [], ["author"]);
+  const authorDraft =
+    detail &&
+    detail.revision.state === "draft" &&
+    detail.canEdit &&
+    hasAnyRole(me.data?.roles ?? [], ["author"]);
   return (
     <Section title="Analysis" action={action}>
       <div className="flex flex-col gap-4" data-testid="analysis-section">
         {run.isError && <ErrorState title="The analysis could not be started" error={run.error} />}
         {body}
-        {authorDraft && <WhatIfPanel revisionId={revisionId} detail={detail} saved={analysis?.state === "done" ? analysis.report : null} />}
+        {authorDraft && (
+          <WhatIfPanel
+            revisionId={revisionId}
+            detail={detail}
+            saved={analysis?.state === "done" ? analysis.report : null}
+          />
+        )}
       </div>
     </Section>
   );

@@ -11,7 +11,8 @@ import { LimitChipStrip } from "./limit-chips";
 /** A labelled progress bar with the stage in words and the time left. */
 export function AnalysisProgress({ analysis, nowMs }: { analysis: AnalysisStatus; nowMs: number }) {
   const pct = percent(analysis.progress);
-  const left = analysis.state === "running" ? secondsLeft(analysis.progress, analysis.startedAt, nowMs) : null;
+  const left =
+    analysis.state === "running" ? secondsLeft(analysis.progress, analysis.startedAt, nowMs) : null;
   const stage = analysis.state === "queued" ? "Queued: waiting for a worker" : stageLabel(analysis.stage);
   return (
     <div className="flex flex-col gap-1.5">
@@ -47,11 +48,16 @@ export function AnalysisDone({ analysis, revisionId }: { analysis: AnalysisStatu
       <div className="flex flex-wrap items-center gap-3">
         <Badge tone={report.pass ? "pass" : "fail"}>{report.pass ? "All limits pass" : "Limits fail"}</Badge>
         <span className="text-sm text-ink-700">
-          <span className="font-mono">{passed}</span> of <span className="font-mono">{report.limits.length}</span> limits pass
+          <span className="font-mono">{passed}</span> of{" "}
+          <span className="font-mono">{report.limits.length}</span> limits pass
           {report.sweep && (
             <>
               {" · smallest passing word length "}
-              <span className="font-mono">{report.sweep.smallestPassingWordLength === null ? "none in the sweep" : `W = ${report.sweep.smallestPassingWordLength}`}</span>
+              <span className="font-mono">
+                {report.sweep.smallestPassingWordLength === null
+                  ? "none in the sweep"
+                  : `W = ${report.sweep.smallestPassingWordLength}`}
+              </span>
             </>
           )}
           {analysis.durationMs !== null && (
@@ -61,7 +67,10 @@ export function AnalysisDone({ analysis, revisionId }: { analysis: AnalysisStatu
             </>
           )}
         </span>
-        <Link to={`/revisions/${revisionId}/report`} className="text-sm font-medium text-signal-800 underline hover:text-signal-900">
+        <Link
+          to={`/revisions/${revisionId}/report`}
+          className="text-sm font-medium text-signal-800 underline hover:text-signal-900"
+        >
           Open the report
         </Link>
       </div>
@@ -71,9 +80,22 @@ export function AnalysisDone({ analysis, revisionId }: { analysis: AnalysisStatu
 }
 
 /** A failed analysis: the reason and a way to try again. */
-export function AnalysisFailed({ analysis, onRetry, busy, canRun }: { analysis: AnalysisStatus; onRetry: () => void; busy: boolean; canRun: boolean }) {
+export function AnalysisFailed({
+  analysis,
+  onRetry,
+  busy,
+  canRun,
+}: {
+  analysis: AnalysisStatus;
+  onRetry: () => void;
+  busy: boolean;
+  canRun: boolean;
+}) {
   return (
-    <div role="alert" className="flex items-start justify-between gap-4 rounded border border-fail-100 bg-fail-50 px-4 py-3">
+    <div
+      role="alert"
+      className="flex items-start justify-between gap-4 rounded border border-fail-100 bg-fail-50 px-4 py-3"
+    >
       <div>
         <p className="text-sm font-medium text-fail-800">The analysis failed</p>
         <p className="text-sm text-fail-700">{analysis.error ?? "No reason was recorded."}</p>

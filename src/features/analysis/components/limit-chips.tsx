@@ -21,7 +21,8 @@ export function LimitChipView({ chip }: { chip: LimitChip }) {
 /** The pass/fail strip: one row of chips per coefficient table. */
 export function LimitChipStrip({ groups }: { groups: { table: string; chips: LimitChip[] }[] }) {
   const shown = groups.filter((g) => g.chips.length > 0);
-  if (shown.length === 0) return <p className="text-sm text-ink-600">No acceptance limits are set for this revision.</p>;
+  if (shown.length === 0)
+    return <p className="text-sm text-ink-600">No acceptance limits are set for this revision.</p>;
   return (
     <div className="flex flex-col gap-1.5">
       {shown.map((g) => (

@@ -25,8 +25,18 @@ export function MetricsTable({ rows }: { rows: MetricRow[] }) {
             <Td numeric>{formatMetric(r.float, r.unit)}</Td>
             <Td numeric>{formatMetric(r.fixed, r.unit, r.key.startsWith("sqnr-") ? "exact" : "—")}</Td>
             <Td numeric>{formatDiff(r.diff, r.unit)}</Td>
-            <Td numeric>{r.check ? `${LIMIT_VIEW[r.check.name].bound === "max" ? "≤" : "≥"} ${formatDb(r.check.limit)}` : "—"}</Td>
-            <Td>{r.check ? <Badge tone={r.check.pass ? "pass" : "fail"}>{r.check.pass ? "Pass" : "Fail"}</Badge> : <span className="text-ink-600">not judged</span>}</Td>
+            <Td numeric>
+              {r.check
+                ? `${LIMIT_VIEW[r.check.name].bound === "max" ? "≤" : "≥"} ${formatDb(r.check.limit)}`
+                : "—"}
+            </Td>
+            <Td>
+              {r.check ? (
+                <Badge tone={r.check.pass ? "pass" : "fail"}>{r.check.pass ? "Pass" : "Fail"}</Badge>
+              ) : (
+                <span className="text-ink-600">not judged</span>
+              )}
+            </Td>
           </Tr>
         ))}
       </tbody>

@@ -25,8 +25,16 @@ export function ReportPage() {
   if (doc.isError) {
     if (doc.error instanceof ApiError && doc.error.status === 404)
       return (
-        <EmptyState title="No report yet" action={<Link className="text-sm font-medium text-signal-800 underline" to={`/revisions/${id}`}>Back to the revision</Link>}>
-          The current content of this revision has not been analysed, or its analysis is still running. Run it from the revision page.
+        <EmptyState
+          title="No report yet"
+          action={
+            <Link className="text-sm font-medium text-signal-800 underline" to={`/revisions/${id}`}>
+              Back to the revision
+            </Link>
+          }
+        >
+          The current content of this revision has not been analysed, or its analysis is still running. Run it
+          from the revision page.
         </EmptyState>
       );
     return <ErrorState error={doc.error} onRetry={() => void doc.refetch()} />;
@@ -48,7 +56,10 @@ function ReportView({ id, doc }: { id: number; doc: ReportDocument }) {
           <span className="flex flex-wrap items-center gap-x-4 gap-y-1">
             <span>{header.project}</span>
             <span className="inline-flex items-center gap-1.5">
-              content <span className="font-mono text-xs" title={header.contentHash}>{header.contentHash.slice(0, 12)}…</span>
+              content{" "}
+              <span className="font-mono text-xs" title={header.contentHash}>
+                {header.contentHash.slice(0, 12)}…
+              </span>
               <CopyButton value={header.contentHash} label="Copy hash" />
             </span>
             <span>
@@ -61,16 +72,32 @@ function ReportView({ id, doc }: { id: number; doc: ReportDocument }) {
         }
         action={
           <>
-            <a className={`${LINK} border-paper-400 bg-paper-50 text-ink-800 hover:bg-paper-200`} href={`/api/revisions/${id}/report.json`} download>
+            <a
+              className={`${LINK} border-paper-400 bg-paper-50 text-ink-800 hover:bg-paper-200`}
+              href={`/api/revisions/${id}/report.json`}
+              download
+            >
               JSON
             </a>
-            <a className={`${LINK} border-signal-800 bg-signal-700 text-white hover:bg-signal-800`} href={`/api/revisions/${id}/report.html`} target="_blank" rel="noopener">
+            <a
+              className={`${LINK} border-signal-800 bg-signal-700 text-white hover:bg-signal-800`}
+              href={`/api/revisions/${id}/report.html`}
+              target="_blank"
+              rel="noopener"
+            >
               Printable report
             </a>
           </>
         }
       />
-      <Section title="Acceptance limits" action={<Badge tone={report.pass ? "pass" : "fail"}>{report.pass ? "All limits pass" : "Limits fail"}</Badge>}>
+      <Section
+        title="Acceptance limits"
+        action={
+          <Badge tone={report.pass ? "pass" : "fail"}>
+            {report.pass ? "All limits pass" : "Limits fail"}
+          </Badge>
+        }
+      >
         <LimitChipStrip groups={limitChips(report)} />
       </Section>
       <Section title="Metrics: float vs fixed point">
@@ -104,8 +131,18 @@ function ReportView({ id, doc }: { id: number; doc: ReportDocument }) {
 }
 
 const SWEEP_COLUMNS: Record<AnalysisReport["kind"], [string, string][]> = {
-  waveform: [["pslDb", "PSL"], ["islrDb", "ISLR"], ["mismatchLossDb", "Mismatch loss"], ["peakLossDb", "Peak loss"], ["coefficientSqnrDb", "SQNR"]],
-  filter: [["stopbandAttenuationDb", "Stopband att."], ["passbandRippleDb", "Ripple"], ["coefficientSqnrDb", "SQNR"]],
+  waveform: [
+    ["pslDb", "PSL"],
+    ["islrDb", "ISLR"],
+    ["mismatchLossDb", "Mismatch loss"],
+    ["peakLossDb", "Peak loss"],
+    ["coefficientSqnrDb", "SQNR"],
+  ],
+  filter: [
+    ["stopbandAttenuationDb", "Stopband att."],
+    ["passbandRippleDb", "Ripple"],
+    ["coefficientSqnrDb", "SQNR"],
+  ],
 };
 
 function SweepTable({ report }: { report: AnalysisReport }) {
@@ -119,8 +156,10 @@ function SweepTable({ report }: { report: AnalysisReport }) {
           <>No word length in the sweep meets every limit.</>
         ) : (
           <>
-            Recommended word length: <span className="font-mono font-semibold">W = {best}</span>, the smallest that meets every limit (table
-            {sweep.tables.length > 1 ? "s" : ""} <span className="font-mono">{sweep.tables.join(", ")}</span> varied, integer bits kept).
+            Recommended word length: <span className="font-mono font-semibold">W = {best}</span>, the smallest
+            that meets every limit (table
+            {sweep.tables.length > 1 ? "s" : ""} <span className="font-mono">{sweep.tables.join(", ")}</span>{" "}
+            varied, integer bits kept).
           </>
         )}
       </p>
@@ -210,7 +249,8 @@ function TablesTable({ report }: { report: AnalysisReport }) {
               <Td className="font-mono">{t.role}</Td>
               <Td numeric>{t.length}</Td>
               <Td className="font-mono text-[13px]">
-                {fp.signed ? "s" : "u"}Q{fp.wordLength - fp.fractionLength}.{fp.fractionLength} (W {fp.wordLength}, {fp.scaling})
+                {fp.signed ? "s" : "u"}Q{fp.wordLength - fp.fractionLength}.{fp.fractionLength} (W{" "}
+                {fp.wordLength}, {fp.scaling})
               </Td>
               <Td className="text-xs">
                 {fp.rounding} / {fp.overflow}
@@ -220,7 +260,11 @@ function TablesTable({ report }: { report: AnalysisReport }) {
                 {t.overflowCount}
               </Td>
               <Td numeric>{t.coefficientSqnrDb === null ? "exact" : formatDb(t.coefficientSqnrDb)}</Td>
-              <Td numeric>{t.accumulator ? `${t.accumulator.worstCaseBits} → ${t.accumulator.recommendedBits} bits` : "—"}</Td>
+              <Td numeric>
+                {t.accumulator
+                  ? `${t.accumulator.worstCaseBits} → ${t.accumulator.recommendedBits} bits`
+                  : "—"}
+              </Td>
             </Tr>
           );
         })}

@@ -10,7 +10,10 @@ const watching = new Set<number>();
 function finishMessage(a: AnalysisStatus): [string, "pass" | "fail"] {
   if (a.state === "failed") return [`Analysis failed: ${a.error ?? "no reason given"}`, "fail"];
   const pass = a.report?.pass;
-  return [`Analysis finished: ${pass === undefined ? "report ready" : pass ? "every limit passes" : "some limits fail"}`, pass === false ? "fail" : "pass"];
+  return [
+    `Analysis finished: ${pass === undefined ? "report ready" : pass ? "every limit passes" : "some limits fail"}`,
+    pass === false ? "fail" : "pass",
+  ];
 }
 
 /**

@@ -24,7 +24,11 @@ function startWorker(): Worker {
  * Debounced; a newer request terminates a busy worker, so a stale run never delays the fresh one, and
  * answers are matched by request id.
  */
-export function useWhatIf(revisionId: number, tables: CoefficientTable[], content: RevisionContent | null): WhatIfState {
+export function useWhatIf(
+  revisionId: number,
+  tables: CoefficientTable[],
+  content: RevisionContent | null,
+): WhatIfState {
   const values = useQueries({ queries: tables.map((t) => tableValuesQueryOptions(revisionId, t.id)) });
   const ready = values.every((q) => q.isSuccess);
   const loadError = values.find((q) => q.error)?.error;
@@ -55,12 +59,17 @@ export function useWhatIf(revisionId: number, tables: CoefficientTable[], conten
       w.onmessage = (e: MessageEvent<WhatIfResponse>) => {
         busy.current = false;
         if (e.data.id !== latest.current) return;
-        setState(e.data.ok ? { status: "done", result: e.data.result, error: null } : { status: "error", result: null, error: e.data.error });
+        setState(
+          e.data.ok
+            ? { status: "done", result: e.data.result, error: null }
+            : { status: "error", result: null, error: e.data.error },
+        );
       };
       w.onerror = (e) => {
         busy.current = false;
         e.preventDefault();
-        if (id === latest.current) setState({ status: "error", result: null, error: e.message || "The what-if worker stopped" });
+        if (id === latest.current)
+          setState({ status: "error", result: null, error: e.message || "The what-if worker stopped" });
       };
       const request: WhatIfRequest = {
         id,

@@ -3,7 +3,12 @@ import type { AnalysisReport } from "@shared/dsp/analysis";
 import { formatEng } from "@/lib/format";
 
 /** Sentences stating the assumptions behind the figures of `report`. */
-export function assumptions(report: Pick<AnalysisReport, "kind" | "interpolation" | "sampleRateHz" | "doppler" | "definitions" | "tables">): string[] {
+export function assumptions(
+  report: Pick<
+    AnalysisReport,
+    "kind" | "interpolation" | "sampleRateHz" | "doppler" | "definitions" | "tables"
+  >,
+): string[] {
   const out: string[] = [];
   const fs = formatEng(report.sampleRateHz, "Hz");
   if (report.kind === "waveform") {
@@ -21,10 +26,17 @@ export function assumptions(report: Pick<AnalysisReport, "kind" | "interpolation
         : "No Doppler shift was set: the Doppler cut is not part of this report.",
     );
   } else {
-    out.push(`The FIR response is evaluated on a uniform frequency grid at ${fs}; real taps are judged on |f|.`);
+    out.push(
+      `The FIR response is evaluated on a uniform frequency grid at ${fs}; real taps are judged on |f|.`,
+    );
   }
-  out.push("Fixed-point figures use the quantized tables' represented values divided by their gain (ĥ/g), so a scaling gain does not count as a loss.");
+  out.push(
+    "Fixed-point figures use the quantized tables' represented values divided by their gain (ĥ/g), so a scaling gain does not count as a loss.",
+  );
   const acc = report.tables.find((t) => t.accumulator);
-  if (acc?.accumulator) out.push(`Accumulator growth assumes a ${acc.accumulator.inputBits}-bit ADC input and the worst-case sum of |coefficients|.`);
+  if (acc?.accumulator)
+    out.push(
+      `Accumulator growth assumes a ${acc.accumulator.inputBits}-bit ADC input and the worst-case sum of |coefficients|.`,
+    );
   return out;
 }

@@ -39,10 +39,17 @@ export const WAVEFORM_METRICS: readonly MetricDef[] = defs([
 ]);
 
 /** Filter metrics in reading order. */
-export const FILTER_METRICS: readonly MetricDef[] = defs(["stopbandAttenuationDb", "passbandRippleDb", "passbandGainDb", "dcGainDb", "dcGain"]);
+export const FILTER_METRICS: readonly MetricDef[] = defs([
+  "stopbandAttenuationDb",
+  "passbandRippleDb",
+  "passbandGainDb",
+  "dcGainDb",
+  "dcGain",
+]);
 
 /** Names of the limits as a sentence fragment, and whether the figure must stay below (max) or above (min). */
-export const LIMIT_VIEW: Readonly<Record<keyof AcceptanceLimits, { label: string; bound: "max" | "min" }>> = LIMIT_WORDS;
+export const LIMIT_VIEW: Readonly<Record<keyof AcceptanceLimits, { label: string; bound: "max" | "min" }>> =
+  LIMIT_WORDS;
 
 /** One row of the dense metrics table. */
 export interface MetricRow {
@@ -63,7 +70,9 @@ const pick = (r: Record<string, number | null>, k: string): number | null => r[k
  * table (float is exact by definition, so only the fixed figure is shown). The SQNR limit is the report's
  * and applies to the worst table; each table's row is judged against the same limit.
  */
-export function metricRows(report: Pick<AnalysisReport, "kind" | "float" | "fixed" | "diff" | "limits" | "tables">): MetricRow[] {
+export function metricRows(
+  report: Pick<AnalysisReport, "kind" | "float" | "fixed" | "diff" | "limits" | "tables">,
+): MetricRow[] {
   const defs = report.kind === "waveform" ? WAVEFORM_METRICS : FILTER_METRICS;
   const checks = new Map(report.limits.map((c) => [c.name, c]));
   const rows: MetricRow[] = [];
@@ -81,8 +90,22 @@ export function metricRows(report: Pick<AnalysisReport, "kind" | "float" | "fixe
   }
   const sqnr = checks.get("coefficientSqnrDbMin");
   for (const t of report.tables) {
-    const check = sqnr ? { ...sqnr, value: t.coefficientSqnrDb, pass: t.coefficientSqnrDb === null || t.coefficientSqnrDb >= sqnr.limit } : null;
-    rows.push({ key: `sqnr-${t.role}`, label: `Coefficient SQNR, ${t.role}`, unit: "dB", float: null, fixed: t.coefficientSqnrDb, diff: null, check });
+    const check = sqnr
+      ? {
+          ...sqnr,
+          value: t.coefficientSqnrDb,
+          pass: t.coefficientSqnrDb === null || t.coefficientSqnrDb >= sqnr.limit,
+        }
+      : null;
+    rows.push({
+      key: `sqnr-${t.role}`,
+      label: `Coefficient SQNR, ${t.role}`,
+      unit: "dB",
+      float: null,
+      fixed: t.coefficientSqnrDb,
+      diff: null,
+      check,
+    });
   }
   return rows;
 }
@@ -101,7 +124,9 @@ export interface LimitChip {
  * Chips per table: the compression (or FIR) limits belong to the receive/FIR table, which is the one
  * the firmware engineer changes; the SQNR limit gives a chip for every table.
  */
-export function limitChips(report: Pick<AnalysisReport, "limits" | "tables">): { table: string; chips: LimitChip[] }[] {
+export function limitChips(
+  report: Pick<AnalysisReport, "limits" | "tables">,
+): { table: string; chips: LimitChip[] }[] {
   const judged = report.tables.find((t) => t.role !== "tx")?.role ?? report.tables[0]?.role ?? "";
   return report.tables.map((t) => {
     const chips: LimitChip[] = [];
@@ -109,9 +134,23 @@ export function limitChips(report: Pick<AnalysisReport, "limits" | "tables">): {
       const view = LIMIT_VIEW[c.name];
       if (c.name === "coefficientSqnrDbMin") {
         const v = t.coefficientSqnrDb;
-        chips.push({ key: `${t.role}-${c.name}`, label: view.label, value: v, limit: c.limit, bound: view.bound, pass: v === null || v >= c.limit });
+        chips.push({
+          key: `${t.role}-${c.name}`,
+          label: view.label,
+          value: v,
+          limit: c.limit,
+          bound: view.bound,
+          pass: v === null || v >= c.limit,
+        });
       } else if (t.role === judged) {
-        chips.push({ key: `${t.role}-${c.name}`, label: view.label, value: c.value, limit: c.limit, bound: view.bound, pass: c.pass });
+        chips.push({
+          key: `${t.role}-${c.name}`,
+          label: view.label,
+          value: c.value,
+          limit: c.limit,
+          bound: view.bound,
+          pass: c.pass,
+        });
       }
     }
     return { table: t.role, chips };

@@ -30,7 +30,10 @@ export const WINDOW_LABELS: Record<WindowKind, string> = {
 export const DEFAULT_WINDOW_PARAMS = { beta: 6, attenuationDb: 60, nbar: 5, sidelobeDb: -35 } as const;
 
 /** A complete window spec of `kind`, filling its parameters from `p`. */
-export function windowOf(kind: WindowKind, p: { beta: number; attenuationDb: number; nbar: number; sidelobeDb: number }): WindowSpec {
+export function windowOf(
+  kind: WindowKind,
+  p: { beta: number; attenuationDb: number; nbar: number; sidelobeDb: number },
+): WindowSpec {
   switch (kind) {
     case "kaiser":
       return { kind, beta: p.beta };

@@ -28,14 +28,24 @@ export function currentChange(content: RevisionContent, table: TableRole): WhatI
   const fp = fixedPointOf(content, table);
   const change: WhatIfChange = {
     table,
-    fixedPoint: { wordLength: fp.wordLength, fractionLength: fp.fractionLength, rounding: fp.rounding, overflow: fp.overflow },
+    fixedPoint: {
+      wordLength: fp.wordLength,
+      fractionLength: fp.fractionLength,
+      rounding: fp.rounding,
+      overflow: fp.overflow,
+    },
   };
   if (content.kind === "waveform") change.rxWindow = content.rx.window;
   return change;
 }
 
 function fixedPointOf(content: RevisionContent, table: TableRole): FixedPointSpec {
-  const fp = content.kind === "waveform" ? (table === "tx" ? content.fixedPoint.tx : content.fixedPoint.rx) : content.fixedPoint.fir;
+  const fp =
+    content.kind === "waveform"
+      ? table === "tx"
+        ? content.fixedPoint.tx
+        : content.fixedPoint.rx
+      : content.fixedPoint.fir;
   return fp;
 }
 
@@ -43,7 +53,8 @@ function fixedPointOf(content: RevisionContent, table: TableRole): FixedPointSpe
 export function applyChange(content: RevisionContent, change: WhatIfChange): RevisionContent {
   const merged = { ...fixedPointOf(content, change.table), ...change.fixedPoint };
   if (content.kind === "waveform") {
-    const fixedPoint = change.table === "tx" ? { ...content.fixedPoint, tx: merged } : { ...content.fixedPoint, rx: merged };
+    const fixedPoint =
+      change.table === "tx" ? { ...content.fixedPoint, tx: merged } : { ...content.fixedPoint, rx: merged };
     return { ...content, fixedPoint, rx: change.rxWindow ? { window: change.rxWindow } : content.rx };
   }
   return { ...content, fixedPoint: { fir: merged } };
@@ -74,12 +85,17 @@ export function mainFigures(report: Pick<AnalysisReport, "kind" | "fixed" | "tab
   let overflow = 0;
   for (const t of report.tables) {
     overflow += t.overflowCount;
-    if (t.coefficientSqnrDb !== null && (worst === null || t.coefficientSqnrDb < worst)) worst = t.coefficientSqnrDb;
+    if (t.coefficientSqnrDb !== null && (worst === null || t.coefficientSqnrDb < worst))
+      worst = t.coefficientSqnrDb;
   }
   const f = report.fixed;
   const common = { coefficientSqnrDb: worst, overflowCount: overflow, pass: report.pass };
   if (report.kind === "filter") {
-    return { ...common, stopbandAttenuationDb: f.stopbandAttenuationDb ?? null, passbandRippleDb: f.passbandRippleDb ?? null };
+    return {
+      ...common,
+      stopbandAttenuationDb: f.stopbandAttenuationDb ?? null,
+      passbandRippleDb: f.passbandRippleDb ?? null,
+    };
   }
   return {
     ...common,

@@ -13,7 +13,8 @@ export interface WhatIfRequest {
 }
 
 /** Worker → page. */
-export type WhatIfResponse = { id: number; ok: true; result: WhatIfResult } | { id: number; ok: false; error: string };
+export type WhatIfResponse =
+  { id: number; ok: true; result: WhatIfResult } | { id: number; ok: false; error: string };
 
 // The project compiles against the DOM lib; name only what a dedicated worker's scope offers here.
 const scope = self as unknown as {

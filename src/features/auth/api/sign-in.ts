@@ -10,7 +10,8 @@ const SignedInSchema = z.object({ user: SessionUserSchema });
 export function useSignIn() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (input: SignInInput) => api("/auth/sign-in", { method: "POST", body: input, schema: SignedInSchema }),
+    mutationFn: (input: SignInInput) =>
+      api("/auth/sign-in", { method: "POST", body: input, schema: SignedInSchema }),
     onSuccess: ({ user }) => {
       // Drop the previous user's data before anything renders with the new session.
       qc.removeQueries({ predicate: (q) => q.queryKey[0] !== authKeys.all[0] });

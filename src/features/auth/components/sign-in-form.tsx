@@ -10,10 +10,17 @@ import { useSignIn } from "../api/sign-in";
 /** User name and password; Enter submits; the server's refusal shows above the button. */
 export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
   const signIn = useSignIn();
-  const form = useForm<SignInInput>({ resolver: zodResolver(SignInSchema), defaultValues: { username: "", password: "" } });
+  const form = useForm<SignInInput>({
+    resolver: zodResolver(SignInSchema),
+    defaultValues: { username: "", password: "" },
+  });
   const { errors } = form.formState;
   const serverError =
-    signIn.error instanceof ApiError ? signIn.error.message : signIn.error ? "Sign-in failed; try again" : undefined;
+    signIn.error instanceof ApiError
+      ? signIn.error.message
+      : signIn.error
+        ? "Sign-in failed; try again"
+        : undefined;
   return (
     <form
       noValidate

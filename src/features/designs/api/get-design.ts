@@ -25,7 +25,8 @@ const StartedRevisionSchema = z.object({ revision: RevisionSummarySchema });
 export function useStartRevision(designId: number) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: () => api(`/designs/${designId}/revisions`, { method: "POST", schema: StartedRevisionSchema }),
+    mutationFn: () =>
+      api(`/designs/${designId}/revisions`, { method: "POST", schema: StartedRevisionSchema }),
     onSuccess: () => qc.invalidateQueries({ queryKey: designKeys.all }),
   });
 }

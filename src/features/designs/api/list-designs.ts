@@ -7,7 +7,8 @@ import { designKeys } from "./keys";
 export const designsQueryOptions = (projectId: number) =>
   queryOptions({
     queryKey: designKeys.list(projectId),
-    queryFn: ({ signal }) => api(`/projects/${projectId}/designs`, { schema: DesignListSchema, signal }).then((r) => r.designs),
+    queryFn: ({ signal }) =>
+      api(`/projects/${projectId}/designs`, { schema: DesignListSchema, signal }).then((r) => r.designs),
   });
 
 /** The designs of one project. */

@@ -15,12 +15,21 @@ export const MAX_UPLOAD_BYTES = 32 * 1024 * 1024;
  */
 export async function uploadFile(projectId: number, file: File, signal?: AbortSignal) {
   if (file.size > MAX_UPLOAD_BYTES)
-    throw new ApiError(413, "bad_request", `${file.name} is ${(file.size / 1048576).toFixed(1)} MiB; files up to 32 MiB are accepted`);
+    throw new ApiError(
+      413,
+      "bad_request",
+      `${file.name} is ${(file.size / 1048576).toFixed(1)} MiB; files up to 32 MiB are accepted`,
+    );
   const form = new FormData();
   form.append("file", file, file.name);
   let res: Response;
   try {
-    res = await fetch(`/api/projects/${projectId}/uploads`, { method: "POST", body: form, credentials: "same-origin", signal });
+    res = await fetch(`/api/projects/${projectId}/uploads`, {
+      method: "POST",
+      body: form,
+      credentials: "same-origin",
+      signal,
+    });
   } catch (err) {
     if (err instanceof DOMException && err.name === "AbortError") throw err;
     throw new ApiError(0, "network", "The server could not be reached");
@@ -28,11 +37,13 @@ export async function uploadFile(projectId: number, file: File, signal?: AbortSi
   const json: unknown = await res.json().catch(() => undefined);
   if (!res.ok) {
     const body = ApiErrorBodySchema.safeParse(json);
-    if (body.success) throw new ApiError(res.status, body.data.error.code, body.data.error.message, body.data.error.details);
+    if (body.success)
+      throw new ApiError(res.status, body.data.error.code, body.data.error.message, body.data.error.details);
     throw new ApiError(res.status, "internal", `The server answered ${res.status} ${res.statusText}`.trim());
   }
   const parsed = UploadedSchema.safeParse(json);
-  if (!parsed.success) throw new ApiError(res.status, "bad_response", "Unexpected answer from the upload", parsed.error.issues);
+  if (!parsed.success)
+    throw new ApiError(res.status, "bad_response", "Unexpected answer from the upload", parsed.error.issues);
   return parsed.data.upload;
 }
 

@@ -15,11 +15,15 @@ import { StateBadge } from "./designs-table";
 /** DESIGN.md "Cautions shown to users", for designs whose tables drive a transmitter. */
 function TransmitCaution() {
   return (
-    <aside aria-label="Transmit caution" className="mb-5 rounded border border-warn-100 bg-warn-50 px-4 py-3 text-sm text-warn-800">
+    <aside
+      aria-label="Transmit caution"
+      className="mb-5 rounded border border-warn-100 bg-warn-50 px-4 py-3 text-sm text-warn-800"
+    >
       <p className="font-medium">This design drives a transmitter.</p>
       <p>
-        A wrap-around overflow or a wrong scale can put full-scale glitches into a power amplifier. Verify every release on a dummy load or in
-        simulation first, follow local spectrum and RF-exposure rules, and follow your organisation&rsquo;s own sign-off practice.
+        A wrap-around overflow or a wrong scale can put full-scale glitches into a power amplifier. Verify
+        every release on a dummy load or in simulation first, follow local spectrum and RF-exposure rules, and
+        follow your organisation&rsquo;s own sign-off practice.
       </p>
     </aside>
   );
@@ -27,7 +31,10 @@ function TransmitCaution() {
 
 function StartRevision({ designId, next }: { designId: number; next: number }) {
   const start = useStartRevision(designId);
-  const draft = start.error instanceof ApiError && start.error.status === 409 ? openDraftId(start.error.details) : undefined;
+  const draft =
+    start.error instanceof ApiError && start.error.status === 409
+      ? openDraftId(start.error.details)
+      : undefined;
   return (
     <div className="flex flex-col items-end gap-1">
       <Button variant="primary" busy={start.isPending} onClick={() => start.mutate()}>
@@ -62,7 +69,12 @@ export function DesignPage() {
   const valid = Number.isInteger(designId) && designId > 0;
   const query = useDesign(valid ? designId : -1);
   if (!valid || (query.error instanceof ApiError && query.error.status === 404)) {
-    return <PageNotFound title="Design not found" message="This design does not exist or you are not a member of its project" />;
+    return (
+      <PageNotFound
+        title="Design not found"
+        message="This design does not exist or you are not a member of its project"
+      />
+    );
   }
   if (query.isPending) return <PageLoading label="Loading design" />;
   if (query.isError) return <ErrorState error={query.error} onRetry={() => void query.refetch()} />;
@@ -88,7 +100,11 @@ export function DesignPage() {
         }
         subtitle={
           <>
-            In <Link to={`/projects/${project.id}`} className="text-signal-800 underline">{project.name}</Link> · owner {design.owner.displayName} · created{" "}
+            In{" "}
+            <Link to={`/projects/${project.id}`} className="text-signal-800 underline">
+              {project.name}
+            </Link>{" "}
+            · owner {design.owner.displayName} · created{" "}
             <span className="font-mono">{formatDateTime(design.createdAt)}</span>
           </>
         }
@@ -96,7 +112,9 @@ export function DesignPage() {
       />
       {design.kind === "waveform" && <TransmitCaution />}
       <Section title="Description">
-        <p className="max-w-3xl text-sm whitespace-pre-line text-ink-800">{design.description || "No description."}</p>
+        <p className="max-w-3xl text-sm whitespace-pre-line text-ink-800">
+          {design.description || "No description."}
+        </p>
       </Section>
       <Section title={`Revisions (${revisions.length})`}>
         {revisions.length === 0 ? (
@@ -117,7 +135,10 @@ export function DesignPage() {
               {newestFirst.map((r) => (
                 <Tr key={r.id}>
                   <Td>
-                    <Link to={`/revisions/${r.id}`} className="font-mono font-medium text-signal-800 hover:underline">
+                    <Link
+                      to={`/revisions/${r.id}`}
+                      className="font-mono font-medium text-signal-800 hover:underline"
+                    >
                       r{r.number}
                     </Link>
                   </Td>

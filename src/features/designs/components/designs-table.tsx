@@ -9,7 +9,12 @@ import {
 } from "@tanstack/react-table";
 import { useEffect, useMemo, useRef, useState } from "react";
 import { Link, useNavigationType, useSearchParams } from "react-router-dom";
-import { DESIGN_KINDS, REVISION_STATES, type DesignSummary, type RevisionState } from "@shared/schemas/designs";
+import {
+  DESIGN_KINDS,
+  REVISION_STATES,
+  type DesignSummary,
+  type RevisionState,
+} from "@shared/schemas/designs";
 import { Badge } from "@/components/ui/badge";
 import { Input } from "@/components/ui/input";
 import { EmptyState, ErrorState, TableSkeleton } from "@/components/ui/states";
@@ -17,7 +22,14 @@ import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { cn } from "@/lib/cn";
 import { formatDateTime } from "@/lib/format";
 import { useDesigns } from "../api/list-designs";
-import { readListState, relativeTime, STATE_LABELS, writeListState, type ListState, type SortColumn } from "../lib/list-state";
+import {
+  readListState,
+  relativeTime,
+  STATE_LABELS,
+  writeListState,
+  type ListState,
+  type SortColumn,
+} from "../lib/list-state";
 
 /** Classes of a link that looks like the primary button (links navigate; buttons act). */
 export const PRIMARY_LINK =
@@ -57,20 +69,31 @@ const columns = [
       </Link>
     ),
   }),
-  col.accessor("kind", { id: "kind", header: "Kind", cell: (c) => <span className="capitalize">{c.getValue()}</span>, filterFn: "equals" }),
+  col.accessor("kind", {
+    id: "kind",
+    header: "Kind",
+    cell: (c) => <span className="capitalize">{c.getValue()}</span>,
+    filterFn: "equals",
+  }),
   col.accessor((d) => d.latestRevision?.number ?? -1, {
     id: "revision",
     header: "Latest revision",
-    cell: (c) => <span className="font-mono text-[13px]">{c.row.original.latestRevision ? `r${c.row.original.latestRevision.number}` : "—"}</span>,
+    cell: (c) => (
+      <span className="font-mono text-[13px]">
+        {c.row.original.latestRevision ? `r${c.row.original.latestRevision.number}` : "—"}
+      </span>
+    ),
     meta: { numeric: true },
   }),
   col.accessor((d) => d.latestRevision?.state ?? "", {
     id: "state",
     header: "State",
-    cell: (c) => (c.row.original.latestRevision ? <StateBadge state={c.row.original.latestRevision.state} /> : "—"),
+    cell: (c) =>
+      c.row.original.latestRevision ? <StateBadge state={c.row.original.latestRevision.state} /> : "—",
     filterFn: "equals",
     sortingFn: (a, b) =>
-      REVISION_STATES.indexOf(a.original.latestRevision?.state ?? "draft") - REVISION_STATES.indexOf(b.original.latestRevision?.state ?? "draft"),
+      REVISION_STATES.indexOf(a.original.latestRevision?.state ?? "draft") -
+      REVISION_STATES.indexOf(b.original.latestRevision?.state ?? "draft"),
   }),
   col.accessor((d) => d.latestRelease?.version ?? "", {
     id: "version",
@@ -96,7 +119,11 @@ const columns = [
     id: "updated",
     header: "Updated",
     cell: (c) => (
-      <time dateTime={c.getValue()} title={formatDateTime(c.getValue())} className="font-mono text-[13px] text-ink-700">
+      <time
+        dateTime={c.getValue()}
+        title={formatDateTime(c.getValue())}
+        className="font-mono text-[13px] text-ink-700"
+      >
         {relativeTime(c.getValue())}
       </time>
     ),
@@ -106,7 +133,17 @@ const columns = [
 const SELECT =
   "h-8 rounded border border-paper-400 bg-white px-2 text-sm text-ink-900 focus:border-signal-600 focus:outline-none focus-visible:outline-2 focus-visible:outline-signal-500";
 
-function Toolbar({ view, setView, shown, total }: { view: ListState; setView: (v: ListState) => void; shown: number; total: number }) {
+function Toolbar({
+  view,
+  setView,
+  shown,
+  total,
+}: {
+  view: ListState;
+  setView: (v: ListState) => void;
+  shown: number;
+  total: number;
+}) {
   return (
     <div className="mb-3 flex flex-wrap items-center gap-3">
       <label htmlFor="design-search" className="sr-only">
@@ -123,7 +160,11 @@ function Toolbar({ view, setView, shown, total }: { view: ListState; setView: (v
       />
       <label className="flex items-center gap-1.5 text-xs text-ink-700">
         Kind
-        <select className={SELECT} value={view.kind} onChange={(e) => setView({ ...view, kind: e.target.value as ListState["kind"] })}>
+        <select
+          className={SELECT}
+          value={view.kind}
+          onChange={(e) => setView({ ...view, kind: e.target.value as ListState["kind"] })}
+        >
           <option value="">All</option>
           {DESIGN_KINDS.map((k) => (
             <option key={k} value={k}>
@@ -134,7 +175,11 @@ function Toolbar({ view, setView, shown, total }: { view: ListState; setView: (v
       </label>
       <label className="flex items-center gap-1.5 text-xs text-ink-700">
         State
-        <select className={SELECT} value={view.state} onChange={(e) => setView({ ...view, state: e.target.value as ListState["state"] })}>
+        <select
+          className={SELECT}
+          value={view.state}
+          onChange={(e) => setView({ ...view, state: e.target.value as ListState["state"] })}
+        >
           <option value="">All</option>
           {REVISION_STATES.map((s) => (
             <option key={s} value={s}>
@@ -175,7 +220,10 @@ export function DesignsTable({ projectId, canCreate }: { projectId: number; canC
   };
   // State handed to TanStack must keep its identity between renders: a fresh array re-sorts every render, and
   // each re-sort queues a page-index reset that renders again — a loop that starves route transitions.
-  const sorting: SortingState = useMemo(() => [{ id: urlView.sort.id, desc: urlView.sort.desc }], [urlView.sort.id, urlView.sort.desc]);
+  const sorting: SortingState = useMemo(
+    () => [{ id: urlView.sort.id, desc: urlView.sort.desc }],
+    [urlView.sort.id, urlView.sort.desc],
+  );
   const columnFilters = useMemo(
     () => [
       ...(view.kind ? [{ id: "kind", value: view.kind }] : []),
@@ -191,7 +239,12 @@ export function DesignsTable({ projectId, canCreate }: { projectId: number; canC
     onSortingChange: (updater) => {
       const next = typeof updater === "function" ? updater(sorting) : updater;
       const first = next[0];
-      setView({ ...view, sort: first ? { id: first.id as SortColumn, desc: first.desc } : { id: view.sort.id, desc: !view.sort.desc } });
+      setView({
+        ...view,
+        sort: first
+          ? { id: first.id as SortColumn, desc: first.desc }
+          : { id: view.sort.id, desc: !view.sort.desc },
+      });
     },
     enableSortingRemoval: false,
     autoResetPageIndex: false,
@@ -206,10 +259,20 @@ export function DesignsTable({ projectId, canCreate }: { projectId: number; canC
   });
 
   if (designs.isPending) return <TableSkeleton rows={4} label="Loading designs" />;
-  if (designs.isError) return <ErrorState error={designs.error} onRetry={() => void designs.refetch()} title="The designs could not be loaded" />;
+  if (designs.isError)
+    return (
+      <ErrorState
+        error={designs.error}
+        onRetry={() => void designs.refetch()}
+        title="The designs could not be loaded"
+      />
+    );
   if (data.length === 0)
     return (
-      <EmptyState title="No designs yet — start one from a generator or an upload" action={canCreate ? <NewDesignLink projectId={projectId} /> : undefined}>
+      <EmptyState
+        title="No designs yet — start one from a generator or an upload"
+        action={canCreate ? <NewDesignLink projectId={projectId} /> : undefined}
+      >
         {canCreate
           ? "A design is one waveform (transmit table plus matched receive filter) or one FIR filter."
           : "Authors of this project create designs; they will be listed here."}
@@ -221,7 +284,11 @@ export function DesignsTable({ projectId, canCreate }: { projectId: number; canC
       <Toolbar view={view} setView={setView} shown={rows.length} total={data.length} />
       {rows.length === 0 ? (
         <EmptyState title="No design matches this search or filter">
-          <button type="button" className="text-signal-800 underline" onClick={() => setView({ ...view, q: "", kind: "", state: "" })}>
+          <button
+            type="button"
+            className="text-signal-800 underline"
+            onClick={() => setView({ ...view, q: "", kind: "", state: "" })}
+          >
             Clear the search and filters
           </button>{" "}
           to see all {data.length}.
@@ -235,11 +302,18 @@ export function DesignsTable({ projectId, canCreate }: { projectId: number; canC
                   const sorted = h.column.getIsSorted();
                   const numeric = (h.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric;
                   return (
-                    <Th key={h.id} numeric={numeric} aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}>
+                    <Th
+                      key={h.id}
+                      numeric={numeric}
+                      aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}
+                    >
                       <button
                         type="button"
                         onClick={h.column.getToggleSortingHandler()}
-                        className={cn("inline-flex items-center gap-1 hover:text-ink-900", numeric && "flex-row-reverse")}
+                        className={cn(
+                          "inline-flex items-center gap-1 hover:text-ink-900",
+                          numeric && "flex-row-reverse",
+                        )}
                       >
                         {flexRender(h.column.columnDef.header, h.getContext())}
                         <span aria-hidden="true" className="w-2 text-ink-500">
@@ -256,7 +330,10 @@ export function DesignsTable({ projectId, canCreate }: { projectId: number; canC
             {rows.map((r) => (
               <Tr key={r.id}>
                 {r.getVisibleCells().map((c) => (
-                  <Td key={c.id} numeric={(c.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric}>
+                  <Td
+                    key={c.id}
+                    numeric={(c.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric}
+                  >
                     {flexRender(c.column.columnDef.cell, c.getContext())}
                   </Td>
                 ))}

@@ -5,25 +5,47 @@ import { FieldGroup, NumberField, SelectField } from "./form-controls";
 
 type Role = keyof DesignFormValues["fixedPoint"];
 
-const ROLE_NAMES: Record<Role, string> = { tx: "tx — transmit", rx: "rx — receive (matched filter)", fir: "fir — filter taps" };
+const ROLE_NAMES: Record<Role, string> = {
+  tx: "tx — transmit",
+  rx: "rx — receive (matched filter)",
+  fir: "fir — filter taps",
+};
 
 /** Word length, fraction length, sign, scaling, rounding and overflow of one table, with its Q format. */
 export function FixedPointFields({ role }: { role: Role }) {
   const { control, register } = useFormContext<DesignFormValues>();
-  const [w, f, signed] = useWatch({ control, name: [`fixedPoint.${role}.wordLength`, `fixedPoint.${role}.fractionLength`, `fixedPoint.${role}.signed`] });
+  const [w, f, signed] = useWatch({
+    control,
+    name: [`fixedPoint.${role}.wordLength`, `fixedPoint.${role}.fractionLength`, `fixedPoint.${role}.signed`],
+  });
   return (
     <FieldGroup
       legend={`Fixed point: ${ROLE_NAMES[role]}`}
       columns={3}
       note={
         <>
-          Format <span className="font-mono text-ink-900" data-testid={`q-format-${role}`}>{qFormat(w, f, signed)}</span>
+          Format{" "}
+          <span className="font-mono text-ink-900" data-testid={`q-format-${role}`}>
+            {qFormat(w, f, signed)}
+          </span>
           {Number.isInteger(w) && ` · ${w}-bit ${signed ? "two's complement" : "unsigned"}`}
         </>
       }
     >
-      <NumberField name={`fixedPoint.${role}.wordLength`} label="Word length W" unit="bits" step="1" hint="2–32" />
-      <NumberField name={`fixedPoint.${role}.fractionLength`} label="Fraction length F" unit="bits" step="1" hint="used as given; scaling may override" />
+      <NumberField
+        name={`fixedPoint.${role}.wordLength`}
+        label="Word length W"
+        unit="bits"
+        step="1"
+        hint="2–32"
+      />
+      <NumberField
+        name={`fixedPoint.${role}.fractionLength`}
+        label="Fraction length F"
+        unit="bits"
+        step="1"
+        hint="used as given; scaling may override"
+      />
       <label className="mt-5 flex items-center gap-2 text-sm text-ink-800">
         <input type="checkbox" className="accent-signal-700" {...register(`fixedPoint.${role}.signed`)} />
         Signed (two's complement)

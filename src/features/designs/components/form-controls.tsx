@@ -21,7 +21,19 @@ export const SELECT_CLASS =
   "h-8 w-full rounded border bg-white px-2 text-sm text-ink-900 focus:border-signal-600 focus:outline-none focus-visible:outline-2 focus-visible:outline-signal-500";
 
 /** A number field with its unit after the label, e.g. "Bandwidth (MHz)". Empty reads as NaN = not given. */
-export function NumberField({ name, label, unit, hint, step = "any" }: { name: Name; label: string; unit?: string; hint?: ReactNode; step?: string }) {
+export function NumberField({
+  name,
+  label,
+  unit,
+  hint,
+  step = "any",
+}: {
+  name: Name;
+  label: string;
+  unit?: string;
+  hint?: ReactNode;
+  step?: string;
+}) {
   const { register } = useFormContext<DesignFormValues>();
   const error = useFieldError(name);
   return (
@@ -78,7 +90,15 @@ export function SelectField({
 }
 
 /** Mutually exclusive choices shown side by side (few options, each worth reading). */
-export function RadioGroup({ name, legend, options }: { name: Name; legend: string; options: ReadonlyArray<readonly [string, string]> }) {
+export function RadioGroup({
+  name,
+  legend,
+  options,
+}: {
+  name: Name;
+  legend: string;
+  options: ReadonlyArray<readonly [string, string]>;
+}) {
   const { register } = useFormContext<DesignFormValues>();
   return (
     <fieldset className="flex flex-col gap-1">
@@ -99,12 +119,29 @@ export function RadioGroup({ name, legend, options }: { name: Name; legend: stri
 }
 
 /** A titled group of fields on a grid. */
-export function FieldGroup({ legend, children, columns = 3, note }: { legend: string; children: ReactNode; columns?: 2 | 3 | 4; note?: ReactNode }) {
+export function FieldGroup({
+  legend,
+  children,
+  columns = 3,
+  note,
+}: {
+  legend: string;
+  children: ReactNode;
+  columns?: 2 | 3 | 4;
+  note?: ReactNode;
+}) {
   return (
     <fieldset className="rounded border border-paper-300 bg-paper-50 px-4 pt-2 pb-4">
       <legend className="px-1 text-sm font-semibold text-ink-800">{legend}</legend>
       {note && <p className="mb-2 text-xs text-ink-600">{note}</p>}
-      <div className={cn("grid gap-3", columns === 2 ? "sm:grid-cols-2" : columns === 3 ? "sm:grid-cols-3" : "sm:grid-cols-4")}>{children}</div>
+      <div
+        className={cn(
+          "grid gap-3",
+          columns === 2 ? "sm:grid-cols-2" : columns === 3 ? "sm:grid-cols-3" : "sm:grid-cols-4",
+        )}
+      >
+        {children}
+      </div>
     </fieldset>
   );
 }

@@ -12,16 +12,40 @@ function LfmFields() {
       <NumberField name="lfm.bandwidthMHz" label="Bandwidth B" unit="MHz" />
       <NumberField name="lfm.pulseWidthUs" label="Pulse width T" unit="µs" />
       <NumberField name="lfm.sampleRateMHz" label="Sample rate fs" unit="MHz" />
-      <RadioGroup name="lfm.direction" legend="Sweep" options={[["up", "Up (−B/2 → +B/2)"], ["down", "Down"]]} />
-      <RadioGroup name="lfm.output" legend="Output" options={[["complex", "Complex baseband"], ["real", "Real at an IF"]]} />
-      {output === "real" && <NumberField name="lfm.intermediateFrequencyMHz" label="Intermediate frequency" unit="MHz" hint="≥ B/2; fs ≥ 2(IF + B/2)" />}
+      <RadioGroup
+        name="lfm.direction"
+        legend="Sweep"
+        options={[
+          ["up", "Up (−B/2 → +B/2)"],
+          ["down", "Down"],
+        ]}
+      />
+      <RadioGroup
+        name="lfm.output"
+        legend="Output"
+        options={[
+          ["complex", "Complex baseband"],
+          ["real", "Real at an IF"],
+        ]}
+      />
+      {output === "real" && (
+        <NumberField
+          name="lfm.intermediateFrequencyMHz"
+          label="Intermediate frequency"
+          unit="MHz"
+          hint="≥ B/2; fs ≥ 2(IF + B/2)"
+        />
+      )}
     </FieldGroup>
   );
 }
 
 function NlfmFields() {
   return (
-    <FieldGroup legend="Nonlinear FM (stationary phase)" note="The instantaneous frequency is shaped so the spectrum follows the chosen window.">
+    <FieldGroup
+      legend="Nonlinear FM (stationary phase)"
+      note="The instantaneous frequency is shaped so the spectrum follows the chosen window."
+    >
       <NumberField name="nlfm.bandwidthMHz" label="Bandwidth B" unit="MHz" />
       <NumberField name="nlfm.pulseWidthUs" label="Pulse width T" unit="µs" />
       <NumberField name="nlfm.sampleRateMHz" label="Sample rate fs" unit="MHz" />
@@ -54,12 +78,30 @@ function PhaseCodeFields() {
         />
       )}
       {(code === "frank" || code === "p1" || code === "p2") && (
-        <NumberField name="phaseCode.order" label="Order M" step="1" hint={`M² chips${code === "p2" ? "; M even" : ""}`} />
+        <NumberField
+          name="phaseCode.order"
+          label="Order M"
+          step="1"
+          hint={`M² chips${code === "p2" ? "; M even" : ""}`}
+        />
       )}
-      {(code === "p3" || code === "p4") && <NumberField name="phaseCode.length" label="Length" unit="chips" step="1" />}
+      {(code === "p3" || code === "p4") && (
+        <NumberField name="phaseCode.length" label="Length" unit="chips" step="1" />
+      )}
       <NumberField name="phaseCode.samplesPerChip" label="Samples per chip" step="1" />
-      <RadioGroup name="phaseCode.rateBasis" legend="Rate given as" options={[["chip", "Chip rate"], ["sample", "Sample rate"]]} />
-      <NumberField name="phaseCode.rateMHz" label={basis === "chip" ? "Chip rate" : "Sample rate fs"} unit="MHz" />
+      <RadioGroup
+        name="phaseCode.rateBasis"
+        legend="Rate given as"
+        options={[
+          ["chip", "Chip rate"],
+          ["sample", "Sample rate"],
+        ]}
+      />
+      <NumberField
+        name="phaseCode.rateMHz"
+        label={basis === "chip" ? "Chip rate" : "Sample rate fs"}
+        unit="MHz"
+      />
     </FieldGroup>
   );
 }
@@ -70,7 +112,15 @@ export function WaveformGeneratorFields() {
   const generator = useWatch({ control, name: "generator" });
   return (
     <div className="flex flex-col gap-3">
-      <RadioGroup name="generator" legend="Generator" options={[["lfm", "Linear FM"], ["nlfm", "Nonlinear FM"], ["phase-code", "Phase code"]]} />
+      <RadioGroup
+        name="generator"
+        legend="Generator"
+        options={[
+          ["lfm", "Linear FM"],
+          ["nlfm", "Nonlinear FM"],
+          ["phase-code", "Phase code"],
+        ]}
+      />
       {generator === "lfm" ? <LfmFields /> : generator === "nlfm" ? <NlfmFields /> : <PhaseCodeFields />}
     </div>
   );
@@ -81,8 +131,18 @@ export function FirDesignFields() {
   const { control, register } = useFormContext<DesignFormValues>();
   const [band, custom] = useWatch({ control, name: ["fir.band", "fir.customWindow"] });
   return (
-    <FieldGroup legend="FIR (windowed sinc)" note="Cutoffs are the centres of the transition bands (≈ −6 dB).">
-      <RadioGroup name="fir.band" legend="Band" options={[["lowpass", "Low-pass"], ["bandpass", "Band-pass"]]} />
+    <FieldGroup
+      legend="FIR (windowed sinc)"
+      note="Cutoffs are the centres of the transition bands (≈ −6 dB)."
+    >
+      <RadioGroup
+        name="fir.band"
+        legend="Band"
+        options={[
+          ["lowpass", "Low-pass"],
+          ["bandpass", "Band-pass"],
+        ]}
+      />
       <NumberField name="fir.sampleRateMHz" label="Sample rate fs" unit="MHz" />
       {band === "lowpass" ? (
         <NumberField name="fir.cutoffMHz" label="Cutoff" unit="MHz" />

@@ -38,8 +38,20 @@ function NameAndDescription() {
   const descriptionError = useFieldError("description");
   return (
     <div className="grid gap-3">
-      <Field label="Name" error={nameError} hint="Unique in the project, e.g. “Long-pulse LFM, 10 MHz / 50 µs”">
-        {({ id, describedBy, invalid }) => <Input id={id} autoComplete="off" aria-describedby={describedBy} invalid={invalid} {...form.register("name")} />}
+      <Field
+        label="Name"
+        error={nameError}
+        hint="Unique in the project, e.g. “Long-pulse LFM, 10 MHz / 50 µs”"
+      >
+        {({ id, describedBy, invalid }) => (
+          <Input
+            id={id}
+            autoComplete="off"
+            aria-describedby={describedBy}
+            invalid={invalid}
+            {...form.register("name")}
+          />
+        )}
       </Field>
       <Field label="Description" error={descriptionError}>
         {({ id, describedBy, invalid }) => (
@@ -59,7 +71,10 @@ function NameAndDescription() {
 
 function UploadSettings({ kind }: { kind: DesignFormValues["kind"] }) {
   return (
-    <FieldGroup legend={kind === "waveform" ? "Uploaded transmit samples" : "Uploaded FIR taps"} columns={kind === "filter" ? 4 : 3}>
+    <FieldGroup
+      legend={kind === "waveform" ? "Uploaded transmit samples" : "Uploaded FIR taps"}
+      columns={kind === "filter" ? 4 : 3}
+    >
       <NumberField name="upload.sampleRateMHz" label="Sample rate fs" unit="MHz" />
       {kind === "filter" && (
         <>
@@ -77,7 +92,11 @@ function DesignForm({ projectId }: { projectId: number }) {
   const navigate = useNavigate();
   const create = useCreateDesign(projectId);
   const [upload, setUpload] = useState<Upload | null>(null);
-  const form = useForm<DesignFormValues>({ resolver: createDesignResolver, mode: "onTouched", defaultValues: defaultFormValues() });
+  const form = useForm<DesignFormValues>({
+    resolver: createDesignResolver,
+    mode: "onTouched",
+    defaultValues: defaultFormValues(),
+  });
   const [kind, source] = useWatch({ control: form.control, name: ["kind", "source"] });
   const uploadError = form.formState.errors.upload?.uploadId?.message;
   const [general, setGeneral] = useState<string | null>(null);
@@ -89,7 +108,12 @@ function DesignForm({ projectId }: { projectId: number }) {
       onError: (err) => {
         const messages = err instanceof ApiError ? fieldMessages(values, serverIssues(err)) : {};
         const { root, ...fields } = messages;
-        for (const [path, message] of Object.entries(fields)) form.setError(path as FieldPath<DesignFormValues>, { type: "server", message }, { shouldFocus: true });
+        for (const [path, message] of Object.entries(fields))
+          form.setError(
+            path as FieldPath<DesignFormValues>,
+            { type: "server", message },
+            { shouldFocus: true },
+          );
         // Whatever names no field is shown above the button; the form keeps every value typed.
         if (Object.keys(fields).length === 0 || root) setGeneral(root ?? err.message);
       },
@@ -98,12 +122,31 @@ function DesignForm({ projectId }: { projectId: number }) {
 
   return (
     <FormProvider {...form}>
-      <form id="new-design-form" noValidate onSubmit={onSubmit} className="grid gap-5 lg:grid-cols-[minmax(0,1fr)_18rem]">
+      <form
+        id="new-design-form"
+        noValidate
+        onSubmit={onSubmit}
+        className="grid gap-5 lg:grid-cols-[minmax(0,1fr)_18rem]"
+      >
         <div className="flex min-w-0 flex-col gap-4">
           <NameAndDescription />
           <div className="flex flex-wrap gap-6">
-            <RadioGroup name="kind" legend="Kind" options={[["waveform", "Waveform (tx + matched rx)"], ["filter", "Filter (FIR)"]]} />
-            <RadioGroup name="source" legend="Source" options={[["generator", "Generator"], ["upload", "Upload a file"]]} />
+            <RadioGroup
+              name="kind"
+              legend="Kind"
+              options={[
+                ["waveform", "Waveform (tx + matched rx)"],
+                ["filter", "Filter (FIR)"],
+              ]}
+            />
+            <RadioGroup
+              name="source"
+              legend="Source"
+              options={[
+                ["generator", "Generator"],
+                ["upload", "Upload a file"],
+              ]}
+            />
           </div>
           {source === "upload" ? (
             <>
@@ -113,7 +156,9 @@ function DesignForm({ projectId }: { projectId: number }) {
                 error={uploadError}
                 onUploaded={(u) => {
                   setUpload(u);
-                  form.setValue("upload.uploadId", u ? u.id : NaN, { shouldValidate: form.formState.isSubmitted });
+                  form.setValue("upload.uploadId", u ? u.id : NaN, {
+                    shouldValidate: form.formState.isSubmitted,
+                  });
                 }}
               />
               <UploadSettings kind={kind} />
@@ -124,7 +169,10 @@ function DesignForm({ projectId }: { projectId: number }) {
             <FirDesignFields />
           )}
           {kind === "waveform" && (
-            <FieldGroup legend="Receive filter" note="h[n] = w[n]·conj(s[N−1−n]): the matched filter of tx, weighted by this window.">
+            <FieldGroup
+              legend="Receive filter"
+              note="h[n] = w[n]·conj(s[N−1−n]): the matched filter of tx, weighted by this window."
+            >
               <WindowFields path="rxWindow" label="Receive window" />
             </FieldGroup>
           )}
@@ -138,7 +186,10 @@ function DesignForm({ projectId }: { projectId: number }) {
           )}
           <LimitsFields kind={kind} />
           {general && (
-            <p role="alert" className="rounded border border-fail-100 bg-fail-50 px-3 py-2 text-sm text-fail-800">
+            <p
+              role="alert"
+              className="rounded border border-fail-100 bg-fail-50 px-3 py-2 text-sm text-fail-800"
+            >
               {general}
             </p>
           )}
@@ -168,7 +219,9 @@ export function NewDesignPage() {
   const isAuthor = me.data?.roles.includes("author") ?? false;
   const project = useQuery({ ...projectQueryOptions(projectId), enabled: valid });
   if (project.error instanceof ApiError && project.error.status === 404)
-    return <PageNotFound title="Project not found" message="This project does not exist or you are not a member" />;
+    return (
+      <PageNotFound title="Project not found" message="This project does not exist or you are not a member" />
+    );
   return (
     <>
       <nav aria-label="Breadcrumb" className="mb-1 text-xs text-ink-600">
@@ -181,11 +234,16 @@ export function NewDesignPage() {
         </Link>{" "}
         / New design
       </nav>
-      <PageHeader title="New design" subtitle="A waveform (transmit table and its matched receive filter) or a FIR filter, from a generator or a file" />
+      <PageHeader
+        title="New design"
+        subtitle="A waveform (transmit table and its matched receive filter) or a FIR filter, from a generator or a file"
+      />
       {!valid ? (
         <EmptyState title="This project does not exist" />
       ) : me.isPending ? null : !isAuthor ? (
-        <EmptyState title="Only authors create designs">Ask an admin for the author role if you define waveforms or filters.</EmptyState>
+        <EmptyState title="Only authors create designs">
+          Ask an admin for the author role if you define waveforms or filters.
+        </EmptyState>
       ) : (
         <DesignForm projectId={projectId} />
       )}

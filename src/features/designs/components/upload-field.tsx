@@ -25,7 +25,17 @@ function position(err: unknown): { line: number; column: number } | undefined {
  * Drop zone and file input: the file goes to the server at once, which keeps it byte for byte and answers with
  * what it read (format, count, complex, SHA-256) or where it stopped (line, column).
  */
-export function UploadField({ projectId, upload, onUploaded, error }: { projectId: number; upload: Upload | null; onUploaded: (u: Upload | null) => void; error?: string }) {
+export function UploadField({
+  projectId,
+  upload,
+  onUploaded,
+  error,
+}: {
+  projectId: number;
+  upload: Upload | null;
+  onUploaded: (u: Upload | null) => void;
+  error?: string;
+}) {
   const send = useUploadFile(projectId);
   const input = useRef<HTMLInputElement>(null);
   const [dragging, setDragging] = useState(false);
@@ -51,15 +61,19 @@ export function UploadField({ projectId, upload, onUploaded, error }: { projectI
         onDrop={onDrop}
         className={cn(
           "flex flex-col items-start gap-1 rounded border border-dashed px-4 py-4",
-          dragging ? "border-signal-600 bg-signal-50" : error ? "border-fail-600 bg-paper-50" : "border-paper-400 bg-paper-50",
+          dragging
+            ? "border-signal-600 bg-signal-50"
+            : error
+              ? "border-fail-600 bg-paper-50"
+              : "border-paper-400 bg-paper-50",
         )}
       >
         <label htmlFor="coefficient-file" className="text-sm font-medium text-ink-800">
           Coefficient file
         </label>
         <p className="text-xs text-ink-600" id="coefficient-file-hint">
-          Drop a file here or choose one: one value (or I and Q) per line, CSV/TSV with or without a header, a+bj complex text, or a JSON
-          array. Up to 32 MiB and 4 194 304 values. Kept byte for byte.
+          Drop a file here or choose one: one value (or I and Q) per line, CSV/TSV with or without a header,
+          a+bj complex text, or a JSON array. Up to 32 MiB and 4 194 304 values. Kept byte for byte.
         </p>
         <input
           ref={input}
@@ -77,7 +91,10 @@ export function UploadField({ projectId, upload, onUploaded, error }: { projectI
         )}
       </div>
       {send.isError && (
-        <div role="alert" className="rounded border border-fail-100 bg-fail-50 px-3 py-2 text-sm text-fail-800">
+        <div
+          role="alert"
+          className="rounded border border-fail-100 bg-fail-50 px-3 py-2 text-sm text-fail-800"
+        >
           <p className="font-medium">The file was not accepted; nothing was stored.</p>
           <p className="font-mono text-[13px]">{send.error.message}</p>
           {where && (
@@ -93,7 +110,10 @@ export function UploadField({ projectId, upload, onUploaded, error }: { projectI
         </p>
       )}
       {upload && (
-        <dl aria-label="Uploaded file" className="grid grid-cols-[max-content_1fr] items-center gap-x-4 gap-y-1 rounded border border-paper-300 bg-white px-3 py-2 text-sm">
+        <dl
+          aria-label="Uploaded file"
+          className="grid grid-cols-[max-content_1fr] items-center gap-x-4 gap-y-1 rounded border border-paper-300 bg-white px-3 py-2 text-sm"
+        >
           <dt className="text-ink-600">File</dt>
           <dd className="font-mono text-[13px]">{upload.fileName}</dd>
           <dt className="text-ink-600">Format</dt>

@@ -23,13 +23,31 @@ export function WindowFields({ path, label }: { path: WindowPath; label: string 
   const kind = useWatch({ control, name: `${path}.kind` });
   return (
     <>
-      <SelectField name={`${path}.kind`} label={label} options={WINDOW_KINDS.map((k) => [k, WINDOW_LABELS[k]] as const)} />
-      {kind === "kaiser" && <NumberField name={`${path}.beta`} label="Kaiser β" hint="0–100; β = πα in Harris's notation" />}
-      {kind === "chebyshev" && <NumberField name={`${path}.attenuationDb`} label="Sidelobe attenuation" unit="dB" hint="13–300 dB below the peak" />}
+      <SelectField
+        name={`${path}.kind`}
+        label={label}
+        options={WINDOW_KINDS.map((k) => [k, WINDOW_LABELS[k]] as const)}
+      />
+      {kind === "kaiser" && (
+        <NumberField name={`${path}.beta`} label="Kaiser β" hint="0–100; β = πα in Harris's notation" />
+      )}
+      {kind === "chebyshev" && (
+        <NumberField
+          name={`${path}.attenuationDb`}
+          label="Sidelobe attenuation"
+          unit="dB"
+          hint="13–300 dB below the peak"
+        />
+      )}
       {kind === "taylor" && (
         <>
           <NumberField name={`${path}.nbar`} label="Taylor n̄" step="1" hint="near-in sidelobes held level" />
-          <NumberField name={`${path}.sidelobeDb`} label="Sidelobe level" unit="dB" hint="negative, e.g. −35" />
+          <NumberField
+            name={`${path}.sidelobeDb`}
+            label="Sidelobe level"
+            unit="dB"
+            hint="negative, e.g. −35"
+          />
         </>
       )}
     </>

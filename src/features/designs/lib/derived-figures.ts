@@ -14,7 +14,8 @@ import { given, mhzToHz, SPEED_OF_LIGHT, usToS } from "./units";
 export const LARGE_N = 1_048_576;
 
 /** Samples in a pulse of width T at rate fs: round(T·fs), as the DSP core's generators count them. */
-export const pulseSampleCount = (pulseWidthS: number, sampleRateHz: number): number => Math.round(pulseWidthS * sampleRateHz);
+export const pulseSampleCount = (pulseWidthS: number, sampleRateHz: number): number =>
+  Math.round(pulseWidthS * sampleRateHz);
 
 /** Time-bandwidth product B·T (the compression ratio of a matched chirp). */
 export const timeBandwidth = (bandwidthHz: number, pulseWidthS: number): number => bandwidthHz * pulseWidthS;
@@ -23,14 +24,21 @@ export const timeBandwidth = (bandwidthHz: number, pulseWidthS: number): number 
 export const rangeResolutionM = (bandwidthHz: number): number => SPEED_OF_LIGHT / (2 * bandwidthHz);
 
 /** Chips of a phase code: Barker L, Frank/P1/P2 M², P3/P4 L. */
-export function chipCount(code: PhaseCodeKind, p: { barkerLength: number; order: number; length: number }): number {
+export function chipCount(
+  code: PhaseCodeKind,
+  p: { barkerLength: number; order: number; length: number },
+): number {
   if (code === "barker") return p.barkerLength;
   if (code === "p3" || code === "p4") return p.length;
   return p.order * p.order;
 }
 
 /** Kaiser's β and order for a windowed-sinc FIR (O&S 1989, eqs. 7.92–7.93 via shared/dsp/fir-design.ts). */
-export function kaiserEstimate(sampleRateHz: number, transitionHz: number, attenuationDb: number): { beta: number; order: number; taps: number } {
+export function kaiserEstimate(
+  sampleRateHz: number,
+  transitionHz: number,
+  attenuationDb: number,
+): { beta: number; order: number; taps: number } {
   const order = Math.max(2, kaiserOrder(attenuationDb, (2 * Math.PI * transitionHz) / sampleRateHz));
   return { beta: kaiserBeta(attenuationDb), order, taps: order + 1 };
 }
@@ -53,11 +61,14 @@ export interface Derived {
   warnings: string[];
 }
 
-const ok = (...xs: Array<number | undefined>) => xs.every((x) => x !== undefined && Number.isFinite(x) && x > 0);
+const ok = (...xs: Array<number | undefined>) =>
+  xs.every((x) => x !== undefined && Number.isFinite(x) && x > 0);
 
 function sampleWarnings(n: number, warnings: string[]): void {
-  if (n > MAX_SAMPLES) warnings.push(`${formatCount(n)} samples is more than the ${formatCount(MAX_SAMPLES)} allowed per table`);
-  else if (n > LARGE_N) warnings.push(`${formatCount(n)} samples: analysis and plots of a table this long are slow`);
+  if (n > MAX_SAMPLES)
+    warnings.push(`${formatCount(n)} samples is more than the ${formatCount(MAX_SAMPLES)} allowed per table`);
+  else if (n > LARGE_N)
+    warnings.push(`${formatCount(n)} samples: analysis and plots of a table this long are slow`);
   else if (n < 1) warnings.push("the pulse is shorter than one sample");
 }
 
@@ -91,14 +102,20 @@ function waveformDerived(v: DesignFormValues, out: Derived): void {
     if (!ok(b, t, fs)) return;
     n = chirpFigures(b, t, fs, out);
     if (v.generator === "lfm" && v.lfm.output === "real") {
-      const fIf = given(v.lfm.intermediateFrequencyMHz) === undefined ? NaN : mhzToHz(v.lfm.intermediateFrequencyMHz);
+      const fIf =
+        given(v.lfm.intermediateFrequencyMHz) === undefined ? NaN : mhzToHz(v.lfm.intermediateFrequencyMHz);
       if (!Number.isFinite(fIf)) out.warnings.push("a real chirp needs an intermediate frequency");
       else {
         if (fIf < b / 2) out.warnings.push("the IF is below B/2: the sweep would cross 0 Hz and fold over");
         if (fs < 2 * (fIf + b / 2))
-          out.warnings.push(`undersampled: a real chirp up to ${formatEng(fIf + b / 2, "Hz")} needs fs ≥ ${formatEng(2 * (fIf + b / 2), "Hz")}`);
+          out.warnings.push(
+            `undersampled: a real chirp up to ${formatEng(fIf + b / 2, "Hz")} needs fs ≥ ${formatEng(2 * (fIf + b / 2), "Hz")}`,
+          );
       }
-    } else if (fs < b) out.warnings.push(`undersampled: complex baseband needs fs ≥ B = ${formatEng(b, "Hz")}; the sweep aliases`);
+    } else if (fs < b)
+      out.warnings.push(
+        `undersampled: complex baseband needs fs ≥ B = ${formatEng(b, "Hz")}; the sweep aliases`,
+      );
   } else {
     const p = v.phaseCode;
     const chips = chipCount(p.code, p);
@@ -124,16 +141,24 @@ function filterDerived(v: DesignFormValues, out: Derived): void {
   const [fs, df, a] = [mhzToHz(f.sampleRateMHz), mhzToHz(f.transitionMHz), f.stopbandAttenuationDb];
   if (!ok(fs, df, a)) return;
   const nyq = fs / 2;
-  const edges = f.band === "lowpass" ? [mhzToHz(f.cutoffMHz)] : [mhzToHz(f.lowCutoffMHz), mhzToHz(f.highCutoffMHz)];
+  const edges =
+    f.band === "lowpass" ? [mhzToHz(f.cutoffMHz)] : [mhzToHz(f.lowCutoffMHz), mhzToHz(f.highCutoffMHz)];
   for (const e of edges)
     if (Number.isFinite(e) && (e - df / 2 <= 0 || e + df / 2 >= nyq))
-      out.warnings.push(`${formatEng(e, "Hz")} ± half the transition leaves (0, fs/2 = ${formatEng(nyq, "Hz")})`);
-  if (f.band === "bandpass" && edges[0]! + df / 2 >= edges[1]! - df / 2) out.warnings.push("the passband is empty: widen the band or narrow the transition");
+      out.warnings.push(
+        `${formatEng(e, "Hz")} ± half the transition leaves (0, fs/2 = ${formatEng(nyq, "Hz")})`,
+      );
+  if (f.band === "bandpass" && edges[0]! + df / 2 >= edges[1]! - df / 2)
+    out.warnings.push("the passband is empty: widen the band or narrow the transition");
   if (df >= nyq || a <= 8) return;
   const est = kaiserEstimate(fs, df, a);
   const window = f.customWindow ? f.window.kind : "kaiser";
   const factor = WINDOW_MAINLOBE_FACTOR[window];
-  let taps = given(f.taps) ?? (factor !== undefined ? Math.max(2, Math.ceil((factor * Math.PI) / ((2 * Math.PI * df) / fs))) + 1 : est.taps);
+  let taps =
+    given(f.taps) ??
+    (factor !== undefined
+      ? Math.max(2, Math.ceil((factor * Math.PI) / ((2 * Math.PI * df) / fs))) + 1
+      : est.taps);
   if (given(f.taps) === undefined && f.customWindow && factor === undefined && window !== "kaiser") {
     out.warnings.push(`a ${window} window has no order formula: give the number of taps`);
     taps = NaN;

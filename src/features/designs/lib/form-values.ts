@@ -93,7 +93,13 @@ export interface DesignFormValues {
   limits: LimitFields;
 }
 
-const window = (kind: WindowSpec["kind"]): WindowFields => ({ kind, beta: 6, attenuationDb: 50, nbar: 6, sidelobeDb: -35 });
+const window = (kind: WindowSpec["kind"]): WindowFields => ({
+  kind,
+  beta: 6,
+  attenuationDb: 50,
+  nbar: 6,
+  sidelobeDb: -35,
+});
 
 // n̄ = 6 is the smallest meeting n̄ ≥ 2A² + 0.5 at −35 dB (shared/dsp/windows.ts taylorMinNbar).
 // 16-bit two's complement, Q1.15, full scale: the usual starting point for DAC and FIR words (common practice).
@@ -124,9 +130,24 @@ export function defaultFormValues(): DesignFormValues {
     kind: "waveform",
     source: "generator",
     generator: "lfm",
-    lfm: { bandwidthMHz: 10, pulseWidthUs: 50, sampleRateMHz: 12.5, direction: "up", output: "complex", intermediateFrequencyMHz: NaN },
+    lfm: {
+      bandwidthMHz: 10,
+      pulseWidthUs: 50,
+      sampleRateMHz: 12.5,
+      direction: "up",
+      output: "complex",
+      intermediateFrequencyMHz: NaN,
+    },
     nlfm: { bandwidthMHz: 5, pulseWidthUs: 100, sampleRateMHz: 6.25, window: window("taylor") },
-    phaseCode: { code: "barker", barkerLength: 13, order: 4, length: 16, samplesPerChip: 1, rateBasis: "chip", rateMHz: 5 },
+    phaseCode: {
+      code: "barker",
+      barkerLength: 13,
+      order: 4,
+      length: 16,
+      samplesPerChip: 1,
+      rateBasis: "chip",
+      rateMHz: 5,
+    },
     fir: {
       band: "lowpass",
       sampleRateMHz: 100,
@@ -139,7 +160,14 @@ export function defaultFormValues(): DesignFormValues {
       window: window("kaiser"),
       taps: NaN,
     },
-    upload: { uploadId: NaN, sampleRateMHz: NaN, passLowMHz: 0, passHighMHz: NaN, stopLowMHz: NaN, stopHighMHz: NaN },
+    upload: {
+      uploadId: NaN,
+      sampleRateMHz: NaN,
+      passLowMHz: 0,
+      passHighMHz: NaN,
+      stopLowMHz: NaN,
+      stopHighMHz: NaN,
+    },
     rxWindow: window("taylor"),
     fixedPoint: { tx: fixed16(), rx: fixed16(), fir: fixed16() },
     limits: { ...NO_LIMITS },

@@ -37,10 +37,16 @@ export function friendlyMessage(issue: IssueLike): string {
 }
 
 /** First message per form field for the given issues. */
-export function fieldMessages(values: DesignFormValues, issues: ReadonlyArray<IssueLike>): Record<string, string> {
+export function fieldMessages(
+  values: DesignFormValues,
+  issues: ReadonlyArray<IssueLike>,
+): Record<string, string> {
   const out: Record<string, string> = {};
   for (const issue of flattenIssues(issues)) {
-    const key = formPathOf(values, issue.path.filter((p): p is string | number => typeof p !== "symbol"));
+    const key = formPathOf(
+      values,
+      issue.path.filter((p): p is string | number => typeof p !== "symbol"),
+    );
     if (!(key in out)) out[key] = friendlyMessage(issue);
   }
   return out;
@@ -59,7 +65,8 @@ function setPath(target: Record<string, unknown>, path: string, value: unknown):
 /** Nested react-hook-form errors from flat `field.path → message` pairs. */
 export function toFieldErrors(messages: Record<string, string>): FieldErrors<DesignFormValues> {
   const errors: Record<string, unknown> = {};
-  for (const [path, message] of Object.entries(messages)) setPath(errors, path, { type: "validate", message });
+  for (const [path, message] of Object.entries(messages))
+    setPath(errors, path, { type: "validate", message });
   return errors as FieldErrors<DesignFormValues>;
 }
 

@@ -19,7 +19,8 @@ export interface ListState {
 /** Newest change first: what an author returning to a project looks for. */
 export const DEFAULT_SORT: ListState["sort"] = { id: "updated", desc: true };
 
-const oneOf = <T extends string>(list: readonly T[], v: string | null): T | "" => (list as readonly string[]).includes(v ?? "") ? (v as T) : "";
+const oneOf = <T extends string>(list: readonly T[], v: string | null): T | "" =>
+  (list as readonly string[]).includes(v ?? "") ? (v as T) : "";
 
 /** Reads the table's view from the query string. */
 export function readListState(params: URLSearchParams): ListState {

@@ -22,11 +22,12 @@ export function toWindowSpec(w: WindowFields): WindowSpec {
   }
 }
 
-const hz = (mhz: number) => given(mhz) === undefined ? undefined : mhzToHz(mhz);
+const hz = (mhz: number) => (given(mhz) === undefined ? undefined : mhzToHz(mhz));
 
 function limitsOf(l: LimitFields): Partial<Record<keyof LimitFields, number>> {
   const out: Partial<Record<keyof LimitFields, number>> = {};
-  for (const [k, v] of Object.entries(l) as Array<[keyof LimitFields, number]>) if (given(v) !== undefined) out[k] = v;
+  for (const [k, v] of Object.entries(l) as Array<[keyof LimitFields, number]>)
+    if (given(v) !== undefined) out[k] = v;
   return out;
 }
 
@@ -106,7 +107,9 @@ function filterContent(v: DesignFormValues): Loose<Extract<RevisionContentInput,
       kind: "design",
       band: f.band,
       sampleRateHz: hz(f.sampleRateMHz),
-      ...(f.band === "lowpass" ? { cutoffHz: hz(f.cutoffMHz) } : { lowCutoffHz: hz(f.lowCutoffMHz), highCutoffHz: hz(f.highCutoffMHz) }),
+      ...(f.band === "lowpass"
+        ? { cutoffHz: hz(f.cutoffMHz) }
+        : { lowCutoffHz: hz(f.lowCutoffMHz), highCutoffHz: hz(f.highCutoffMHz) }),
       transitionHz: hz(f.transitionMHz),
       stopbandAttenuationDb: given(f.stopbandAttenuationDb),
       ...(f.customWindow ? { window: toWindowSpec(f.window) } : {}),
@@ -158,7 +161,14 @@ function sourcePath(v: DesignFormValues, rest: Path): string {
   if (group === "phaseCode") {
     if (head === "sampleRateHz") return "phaseCode.rateMHz";
     if (head === "code") {
-      const field = v.phaseCode.code === "barker" ? "barkerLength" : tail[0] === "order" ? "order" : tail[0] === "length" ? "length" : "code";
+      const field =
+        v.phaseCode.code === "barker"
+          ? "barkerLength"
+          : tail[0] === "order"
+            ? "order"
+            : tail[0] === "length"
+              ? "length"
+              : "code";
       return `phaseCode.${field}`;
     }
     return `phaseCode.${head}`;
@@ -172,7 +182,11 @@ export function formPathOf(v: DesignFormValues, path: Path): string {
   const [a, b, c, ...rest] = path.map(String);
   if (a === "name" || a === "description") return a;
   if (a !== "content") return "root";
-  if (b === "tx" || b === "fir") return sourcePath(v, [c, ...rest].filter((x): x is string => x !== undefined));
+  if (b === "tx" || b === "fir")
+    return sourcePath(
+      v,
+      [c, ...rest].filter((x): x is string => x !== undefined),
+    );
   if (b === "rx") return c === "window" && rest[0] ? `rxWindow.${rest[0]}` : "rxWindow.kind";
   if (b === "fixedPoint" && c) return rest[0] ? `fixedPoint.${c}.${rest[0]}` : `fixedPoint.${c}.wordLength`;
   if (b === "limits" && c) return `limits.${c}`;

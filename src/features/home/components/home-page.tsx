@@ -14,9 +14,11 @@ import { WorkSections } from "./work-sections";
 // What each role gets done here (DESIGN.md, "Who uses it"), so the home page says why you are here.
 const ROLE_DUTIES: Record<Role, string> = {
   admin: "Manage users, roles and project membership.",
-  author: "Define waveforms and filters, choose word lengths, submit them for review and release approved revisions.",
+  author:
+    "Define waveforms and filters, choose word lengths, submit them for review and release approved revisions.",
   reviewer: "Check fixed-point reports against the acceptance limits and approve or request changes.",
-  firmware: "Find released versions for your build, download bundles and upload simulation output for bit-exact checks.",
+  firmware:
+    "Find released versions for your build, download bundles and upload simulation output for bit-exact checks.",
 };
 
 function Stat({ label, children }: { label: string; children: ReactNode }) {
@@ -37,12 +39,16 @@ function StatStrip({ home }: { home: Home }) {
     >
       <Stat label="My projects">{formatCount(stats.projectCount)}</Stat>
       {stats.userCount !== undefined && <Stat label="Users">{formatCount(stats.userCount)}</Stat>}
-      {stats.activeSessions !== undefined && <Stat label="Active sessions">{formatCount(stats.activeSessions)}</Stat>}
+      {stats.activeSessions !== undefined && (
+        <Stat label="Active sessions">{formatCount(stats.activeSessions)}</Stat>
+      )}
       {health && (
         <Stat label="Database">
           <span className="inline-flex items-center gap-2">
             <Badge tone={health.database.ok ? "pass" : "fail"}>{health.database.ok ? "up" : "down"}</Badge>
-            {health.database.latencyMs !== null && <span className="text-sm">{health.database.latencyMs.toFixed(1)} ms</span>}
+            {health.database.latencyMs !== null && (
+              <span className="text-sm">{health.database.latencyMs.toFixed(1)} ms</span>
+            )}
           </span>
         </Stat>
       )}
@@ -51,7 +57,11 @@ function StatStrip({ home }: { home: Home }) {
 }
 
 /** `/`: my roles, my projects and, for an admin, the users, sessions and server health. */
-export function HomePage({ renderProjects }: { renderProjects: (projects: readonly Project[]) => ReactNode }) {
+export function HomePage({
+  renderProjects,
+}: {
+  renderProjects: (projects: readonly Project[]) => ReactNode;
+}) {
   const home = useHome();
   if (home.isPending) {
     return (
@@ -128,7 +138,9 @@ export function HomePage({ renderProjects }: { renderProjects: (projects: readon
             <dd className="font-mono">{formatDuration(health.uptimeSeconds)}</dd>
             <dt className="text-ink-600">Database</dt>
             <dd className="font-mono">
-              {health.database.ok ? "reachable" : `unreachable${health.database.error ? `: ${health.database.error}` : ""}`}
+              {health.database.ok
+                ? "reachable"
+                : `unreachable${health.database.error ? `: ${health.database.error}` : ""}`}
             </dd>
           </dl>
         </Section>

@@ -19,7 +19,9 @@ export function ProjectPage() {
   // Creating needs the author role (the server also requires membership, which seeing the page implies).
   const canCreate = useMe().data?.roles.includes("author") ?? false;
   if (!valid || (query.error instanceof ApiError && query.error.status === 404)) {
-    return <PageNotFound title="Project not found" message="This project does not exist or you are not a member" />;
+    return (
+      <PageNotFound title="Project not found" message="This project does not exist or you are not a member" />
+    );
   }
   if (query.isPending) return <PageLoading label="Loading project" />;
   if (query.isError) return <ErrorState error={query.error} onRetry={() => void query.refetch()} />;
@@ -40,7 +42,8 @@ export function ProjectPage() {
             <p className="max-w-3xl">{project.description || "No description."}</p>
             <p className="mt-1 text-xs">
               Slug <span className="font-mono">{project.slug}</span> · created{" "}
-              <span className="font-mono">{formatDate(project.createdAt)}</span> · {project.memberCount} members
+              <span className="font-mono">{formatDate(project.createdAt)}</span> · {project.memberCount}{" "}
+              members
             </p>
           </>
         }

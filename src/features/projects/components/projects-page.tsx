@@ -63,9 +63,13 @@ export function ProjectsPage() {
       ) : projects.isError ? (
         <ErrorState error={projects.error} onRetry={() => void projects.refetch()} />
       ) : projects.data.length === 0 ? (
-        <EmptyState title="You are not a member of any project yet">Ask an admin to add you to a project.</EmptyState>
+        <EmptyState title="You are not a member of any project yet">
+          Ask an admin to add you to a project.
+        </EmptyState>
       ) : rows.length === 0 ? (
-        <EmptyState title={`No project matches “${q}”`}>Clear the search to see all {projects.data.length}.</EmptyState>
+        <EmptyState title={`No project matches “${q}”`}>
+          Clear the search to see all {projects.data.length}.
+        </EmptyState>
       ) : (
         <ProjectsTable projects={rows} />
       )}

@@ -4,7 +4,13 @@ import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { formatDate } from "@/lib/format";
 
 /** Projects as a compact table: name (linked), slug, member count, created. */
-export function ProjectsTable({ projects, label = "Projects" }: { projects: readonly Project[]; label?: string }) {
+export function ProjectsTable({
+  projects,
+  label = "Projects",
+}: {
+  projects: readonly Project[];
+  label?: string;
+}) {
   return (
     <Table label={label}>
       <thead>

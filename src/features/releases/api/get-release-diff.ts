@@ -10,7 +10,8 @@ const ResponseSchema = z.object({ diff: ReleaseDiffSchema });
 export const releaseDiffQueryOptions = (id: number, against: number) =>
   queryOptions({
     queryKey: releaseKeys.diff(id, against),
-    queryFn: async ({ signal }) => (await api(`/releases/${id}/diff?against=${against}`, { schema: ResponseSchema, signal })).diff,
+    queryFn: async ({ signal }) =>
+      (await api(`/releases/${id}/diff?against=${against}`, { schema: ResponseSchema, signal })).diff,
     staleTime: Infinity,
   });
 

@@ -7,7 +7,8 @@ import { releaseKeys } from "./keys";
 export const releaseQueryOptions = (id: number) =>
   queryOptions({
     queryKey: releaseKeys.detail(id),
-    queryFn: async ({ signal }) => (await api(`/releases/${id}`, { schema: ReleaseResponseSchema, signal })).release,
+    queryFn: async ({ signal }) =>
+      (await api(`/releases/${id}`, { schema: ReleaseResponseSchema, signal })).release,
   });
 
 /** One release for its page. */

@@ -24,9 +24,12 @@ export function BuildCommands({ release }: { release: Release }) {
     <Section title="For build scripts">
       <div className="flex max-w-4xl flex-col gap-3">
         <p className="text-sm text-ink-700">
-          Create a read token under <a className="text-signal-800 underline" href="/account#api-tokens">Account › API tokens</a> and
-          export it as <code className="font-mono text-[13px]">TAPWRIGHT_TOKEN</code>. The puller checks the zip&rsquo;s SHA-256,
-          every line of SHA256SUMS and the manifest before it unpacks anything.
+          Create a read token under{" "}
+          <a className="text-signal-800 underline" href="/account#api-tokens">
+            Account › API tokens
+          </a>{" "}
+          and export it as <code className="font-mono text-[13px]">TAPWRIGHT_TOKEN</code>. The puller checks
+          the zip&rsquo;s SHA-256, every line of SHA256SUMS and the manifest before it unpacks anything.
         </p>
         <CommandLine label="Pull command" command={pullCommand(release, origin)} />
         <CommandLine label="Curl command" command={curlCommand(release, origin)} />

@@ -15,7 +15,8 @@ const SELECT =
   "h-8 w-full rounded border border-paper-400 bg-white px-2 text-sm text-ink-900 focus:border-signal-600 focus:outline-none focus-visible:outline-2 focus-visible:outline-signal-500";
 
 function SpecTable({ diff }: { diff: ReleaseDiff }) {
-  if (diff.spec.length === 0) return <p className="text-sm text-ink-700">No fixed-point spec field changed.</p>;
+  if (diff.spec.length === 0)
+    return <p className="text-sm text-ink-700">No fixed-point spec field changed.</p>;
   return (
     <Table label="Changed spec fields">
       <thead>
@@ -56,7 +57,11 @@ function CoefficientTable({ diff }: { diff: ReleaseDiff }) {
         {diff.tables.map((t) => (
           <Tr key={t.table}>
             <Td className="font-mono text-[13px]">{t.table}</Td>
-            <Td numeric>{t.lengthFrom === t.lengthTo ? String(t.lengthTo ?? "—") : `${t.lengthFrom ?? "—"} → ${t.lengthTo ?? "—"}`}</Td>
+            <Td numeric>
+              {t.lengthFrom === t.lengthTo
+                ? String(t.lengthTo ?? "—")
+                : `${t.lengthFrom ?? "—"} → ${t.lengthTo ?? "—"}`}
+            </Td>
             <Td numeric>{t.changedWords === null ? "—" : formatCount(t.changedWords)}</Td>
             <Td numeric data-testid={`max-lsb-${t.table}`}>
               {formatLsb(t.maxChangeLsb)}
@@ -115,10 +120,14 @@ function DiffResult({ releaseId, against }: { releaseId: number; against: number
     <div className="flex flex-col gap-4">
       <p className="text-sm text-ink-700">
         {d.from.version} (r{d.from.revisionNumber}) → {d.to.version} (r{d.to.revisionNumber}).{" "}
-        {d.sameContent ? "Same content hash: the tables and specs are identical." : "Words are compared as the values they stand for (code·2^−F)."}
+        {d.sameContent
+          ? "Same content hash: the tables and specs are identical."
+          : "Words are compared as the values they stand for (code·2^−F)."}
       </p>
       <div>
-        <h3 className="mb-1.5 text-xs font-semibold tracking-wide text-ink-700 uppercase">Fixed-point spec</h3>
+        <h3 className="mb-1.5 text-xs font-semibold tracking-wide text-ink-700 uppercase">
+          Fixed-point spec
+        </h3>
         <SpecTable diff={d} />
       </div>
       <div>
@@ -126,7 +135,9 @@ function DiffResult({ releaseId, against }: { releaseId: number; against: number
         <CoefficientTable diff={d} />
       </div>
       <div>
-        <h3 className="mb-1.5 text-xs font-semibold tracking-wide text-ink-700 uppercase">Metrics (float and fixed)</h3>
+        <h3 className="mb-1.5 text-xs font-semibold tracking-wide text-ink-700 uppercase">
+          Metrics (float and fixed)
+        </h3>
         <MetricTable diff={d} />
       </div>
     </div>
@@ -141,7 +152,9 @@ export function ReleaseDiffSection({ release }: { release: Release }) {
   const raw = params.get("against");
   const chosen = raw && others.some((r) => String(r.id) === raw) ? Number(raw) : null;
   // Without a choice, compare with the nearest earlier version: the usual question when a new one lands.
-  const earlier = others.filter((r) => compareVersions(r.version, release.version) < 0).sort((a, b) => compareVersions(b.version, a.version));
+  const earlier = others
+    .filter((r) => compareVersions(r.version, release.version) < 0)
+    .sort((a, b) => compareVersions(b.version, a.version));
   const against = chosen ?? earlier[0]?.id ?? null;
 
   return (

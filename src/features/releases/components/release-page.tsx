@@ -19,9 +19,13 @@ const DOWNLOAD =
 
 function WithdrawnBanner({ withdrawn }: { withdrawn: NonNullable<Release["withdrawn"]> }) {
   return (
-    <aside aria-label="Withdrawn" className="mb-4 rounded border border-fail-100 bg-fail-50 px-4 py-3 text-sm text-fail-800">
+    <aside
+      aria-label="Withdrawn"
+      className="mb-4 rounded border border-fail-100 bg-fail-50 px-4 py-3 text-sm text-fail-800"
+    >
       <p className="font-semibold">
-        Withdrawn {formatDateTime(withdrawn.at)} by {withdrawn.by.displayName}. Do not start new work from this release.
+        Withdrawn {formatDateTime(withdrawn.at)} by {withdrawn.by.displayName}. Do not start new work from
+        this release.
       </p>
       <p className="mt-1 whitespace-pre-wrap">Reason: {withdrawn.reason}</p>
       <p className="mt-1 text-fail-700">It stays downloadable so existing builds can be traced.</p>
@@ -34,7 +38,10 @@ function Facts({ release }: { release: Release }) {
     <dl className="grid max-w-4xl grid-cols-[max-content_1fr] gap-x-6 gap-y-1.5 rounded border border-paper-300 bg-paper-50 px-4 py-3 text-sm">
       <dt className="text-ink-600">Design</dt>
       <dd>
-        <Link to={`/designs/${release.designId}`} className="text-signal-800 underline-offset-2 hover:underline">
+        <Link
+          to={`/designs/${release.designId}`}
+          className="text-signal-800 underline-offset-2 hover:underline"
+        >
           {release.designName}
         </Link>{" "}
         <span className="text-ink-600">({release.designKind})</span>
@@ -43,7 +50,10 @@ function Facts({ release }: { release: Release }) {
       <dd className="font-mono text-[13px]">{release.projectSlug}</dd>
       <dt className="text-ink-600">Revision</dt>
       <dd>
-        <Link to={`/revisions/${release.revisionId}`} className="font-mono text-signal-800 underline-offset-2 hover:underline">
+        <Link
+          to={`/revisions/${release.revisionId}`}
+          className="font-mono text-signal-800 underline-offset-2 hover:underline"
+        >
           r{release.revisionNumber}
         </Link>
       </dd>
@@ -53,11 +63,14 @@ function Facts({ release }: { release: Release }) {
       </dd>
       <dt className="text-ink-600">Released</dt>
       <dd>
-        <span className="font-mono text-[13px]">{formatDateTime(release.releasedAt)}</span> by {release.releasedBy.displayName}
+        <span className="font-mono text-[13px]">{formatDateTime(release.releasedAt)}</span> by{" "}
+        {release.releasedBy.displayName}
       </dd>
       <dt className="text-ink-600">Bundle size</dt>
       <dd className="font-mono text-[13px]">
-        {release.bundleSize === null ? "—" : `${formatEng(release.bundleSize, "B")} (${formatCount(release.bundleSize)} bytes)`}
+        {release.bundleSize === null
+          ? "—"
+          : `${formatEng(release.bundleSize, "B")} (${formatCount(release.bundleSize)} bytes)`}
       </dd>
       <dt className="text-ink-600">Bundle SHA-256</dt>
       <dd className="font-mono text-[13px] break-all" data-testid="bundle-sha256">
@@ -118,7 +131,9 @@ export function ReleasePage() {
         <Facts release={r} />
       </Section>
       <Section title="Release notes">
-        <div className="max-w-4xl rounded border border-paper-300 bg-paper-50 px-4 py-3 text-sm whitespace-pre-wrap">{r.notes}</div>
+        <div className="max-w-4xl rounded border border-paper-300 bg-paper-50 px-4 py-3 text-sm whitespace-pre-wrap">
+          {r.notes}
+        </div>
       </Section>
       <ReleaseFiles files={r.files} />
       <BuildCommands release={r} />

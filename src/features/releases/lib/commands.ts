@@ -7,19 +7,39 @@ export function shellQuote(s: string): string {
 }
 
 /** `npm run pull -- <project>/<design>@<version> --out DIR --server ORIGIN` (the token comes from TAPWRIGHT_TOKEN). */
-export function pullCommand(release: Pick<Release, "projectSlug" | "designName" | "version">, origin: string, out = "DIR"): string {
+export function pullCommand(
+  release: Pick<Release, "projectSlug" | "designName" | "version">,
+  origin: string,
+  out = "DIR",
+): string {
   const spec = `${release.projectSlug}/${release.designName}@${release.version}`;
   return `npm run pull -- ${shellQuote(spec)} --out ${shellQuote(out)} --server ${shellQuote(origin)}`;
 }
 
 /** The bundle's URL by project, design and version (the form build scripts use; ids are not stable across servers). */
-export function bundleUrl(release: Pick<Release, "projectSlug" | "designName" | "version">, origin: string): string {
-  const path = [release.projectSlug, "designs", release.designName, "releases", release.version, "bundle"].map(encodeURIComponent);
+export function bundleUrl(
+  release: Pick<Release, "projectSlug" | "designName" | "version">,
+  origin: string,
+): string {
+  const path = [
+    release.projectSlug,
+    "designs",
+    release.designName,
+    "releases",
+    release.version,
+    "bundle",
+  ].map(encodeURIComponent);
   return `${origin}/api/projects/${path.join("/")}`;
 }
 
 /** A curl line that fails on HTTP errors and saves the zip under a predictable name. */
-export function curlCommand(release: Pick<Release, "projectSlug" | "designName" | "version">, origin: string): string {
-  const file = `${release.projectSlug}-${release.designName}-${release.version}.zip`.replace(/[^A-Za-z0-9._-]+/g, "-");
+export function curlCommand(
+  release: Pick<Release, "projectSlug" | "designName" | "version">,
+  origin: string,
+): string {
+  const file = `${release.projectSlug}-${release.designName}-${release.version}.zip`.replace(
+    /[^A-Za-z0-9._-]+/g,
+    "-",
+  );
   return `curl -fSL -H "Authorization: Bearer $TAPWRIGHT_TOKEN" -o ${shellQuote(file)} ${shellQuote(bundleUrl(release, origin))}`;
 }

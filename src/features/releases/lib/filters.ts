@@ -10,7 +10,11 @@ export interface ReleaseUrlState {
 
 /** Read the filters from the search params. */
 export function readReleaseUrl(params: URLSearchParams): ReleaseUrlState {
-  return { project: params.get("project") ?? "", design: params.get("design") ?? "", status: params.get("status") ?? "" };
+  return {
+    project: params.get("project") ?? "",
+    design: params.get("design") ?? "",
+    status: params.get("status") ?? "",
+  };
 }
 
 /** Search params for a state, empty values left out. */
@@ -25,6 +29,7 @@ export function toReleaseQuery(state: ReleaseUrlState): ReleaseListQuery {
   const q: ReleaseListQuery = {};
   if (state.project) q.project = state.project;
   if (/^[1-9]\d*$/.test(state.design)) q.design = Number(state.design);
-  if ((RELEASE_STATUSES as readonly string[]).includes(state.status)) q.status = state.status as ReleaseListQuery["status"];
+  if ((RELEASE_STATUSES as readonly string[]).includes(state.status))
+    q.status = state.status as ReleaseListQuery["status"];
   return q;
 }

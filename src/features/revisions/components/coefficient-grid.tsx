@@ -26,7 +26,12 @@ function Grid({ table, samples }: { table: CoefficientTable; samples: Samples })
   const scroller = useRef<HTMLDivElement>(null);
   const first = page * ROWS_PER_PAGE;
   const count = Math.min(ROWS_PER_PAGE, n - first);
-  const virtual = useVirtualizer({ count, getScrollElement: () => scroller.current, estimateSize: () => ROW_PX, overscan: 20 });
+  const virtual = useVirtualizer({
+    count,
+    getScrollElement: () => scroller.current,
+    estimateSize: () => ROW_PX,
+    overscan: 20,
+  });
   const items = virtual.getVirtualItems();
   const top = items[0]?.start ?? 0;
   const bottom = virtual.getTotalSize() - (items[items.length - 1]?.end ?? 0);
@@ -46,7 +51,8 @@ function Grid({ table, samples }: { table: CoefficientTable; samples: Samples })
     <div className="flex flex-col gap-2">
       <div className="flex flex-wrap items-center justify-between gap-2 text-xs text-ink-600">
         <span>
-          Rows <span className="font-mono">{formatCount(first)}</span>–<span className="font-mono">{formatCount(first + count - 1)}</span> of{" "}
+          Rows <span className="font-mono">{formatCount(first)}</span>–
+          <span className="font-mono">{formatCount(first + count - 1)}</span> of{" "}
           <span className="font-mono">{formatCount(n)}</span>
           {pages > 1 && (
             <>
@@ -55,7 +61,12 @@ function Grid({ table, samples }: { table: CoefficientTable; samples: Samples })
               <Button size="sm" variant="ghost" disabled={page === 0} onClick={() => setPage(page - 1)}>
                 Previous page
               </Button>
-              <Button size="sm" variant="ghost" disabled={page === pages - 1} onClick={() => setPage(page + 1)}>
+              <Button
+                size="sm"
+                variant="ghost"
+                disabled={page === pages - 1}
+                onClick={() => setPage(page + 1)}
+              >
                 Next page
               </Button>
             </>
@@ -63,28 +74,56 @@ function Grid({ table, samples }: { table: CoefficientTable; samples: Samples })
         </span>
         <form onSubmit={goTo} className="flex items-center gap-1">
           <label htmlFor={`jump-${table.id}`}>Go to index</label>
-          <Input id={`jump-${table.id}`} inputMode="numeric" value={jump} onChange={(e) => setJump(e.target.value)} className="h-7 w-28 font-mono" />
+          <Input
+            id={`jump-${table.id}`}
+            inputMode="numeric"
+            value={jump}
+            onChange={(e) => setJump(e.target.value)}
+            className="h-7 w-28 font-mono"
+          />
           <Button size="sm" type="submit">
             Go
           </Button>
         </form>
       </div>
-      <div ref={scroller} tabIndex={0} role="region" aria-label={`${label}, scrollable`} className="h-72 overflow-auto rounded border border-paper-300 bg-paper-50">
-        <table aria-label={label} aria-rowcount={n + 1} className="w-full border-collapse font-mono text-[12px]">
+      <div
+        ref={scroller}
+        tabIndex={0}
+        role="region"
+        aria-label={`${label}, scrollable`}
+        className="h-72 overflow-auto rounded border border-paper-300 bg-paper-50"
+      >
+        <table
+          aria-label={label}
+          aria-rowcount={n + 1}
+          className="w-full border-collapse font-mono text-[12px]"
+        >
           <thead className="sticky top-0 bg-paper-100 font-sans">
             <tr>
-              <th scope="col" className="border-b border-paper-300 px-3 py-1 text-right text-xs font-semibold text-ink-700">
+              <th
+                scope="col"
+                className="border-b border-paper-300 px-3 py-1 text-right text-xs font-semibold text-ink-700"
+              >
                 n
               </th>
-              <th scope="col" className="border-b border-paper-300 px-3 py-1 text-right text-xs font-semibold text-ink-700">
+              <th
+                scope="col"
+                className="border-b border-paper-300 px-3 py-1 text-right text-xs font-semibold text-ink-700"
+              >
                 {table.complex ? "I (real)" : "Value"}
               </th>
               {table.complex && (
-                <th scope="col" className="border-b border-paper-300 px-3 py-1 text-right text-xs font-semibold text-ink-700">
+                <th
+                  scope="col"
+                  className="border-b border-paper-300 px-3 py-1 text-right text-xs font-semibold text-ink-700"
+                >
                   Q (imaginary)
                 </th>
               )}
-              <th scope="col" className="border-b border-paper-300 px-3 py-1 text-right text-xs font-semibold text-ink-700">
+              <th
+                scope="col"
+                className="border-b border-paper-300 px-3 py-1 text-right text-xs font-semibold text-ink-700"
+              >
                 |h|
               </th>
             </tr>
@@ -96,7 +135,12 @@ function Grid({ table, samples }: { table: CoefficientTable; samples: Samples })
               const re = samples.re[i]!;
               const im = samples.im[i]!;
               return (
-                <tr key={row.key} aria-rowindex={i + 2} style={{ height: ROW_PX }} className="text-right text-ink-900 hover:bg-paper-100">
+                <tr
+                  key={row.key}
+                  aria-rowindex={i + 2}
+                  style={{ height: ROW_PX }}
+                  className="text-right text-ink-900 hover:bg-paper-100"
+                >
                   <td className="px-3 text-ink-600">{i}</td>
                   <td className="px-3">{full(re)}</td>
                   {table.complex && <td className="px-3">{full(im)}</td>}

@@ -18,7 +18,11 @@ const FormSchema = z.object({ fixedPoint: z.record(z.string(), FixedPointSpecSch
 type FormIn = z.input<typeof FormSchema>;
 type FormOut = z.output<typeof FormSchema>;
 
-const SCALING: Record<Spec["scaling"], string> = { "as-given": "as given (F)", normalize: "normalize (power of 2)", "full-scale": "full scale" };
+const SCALING: Record<Spec["scaling"], string> = {
+  "as-given": "as given (F)",
+  normalize: "normalize (power of 2)",
+  "full-scale": "full scale",
+};
 const ROUNDING: Record<Spec["rounding"], string> = {
   "nearest-away": "nearest, ties away",
   "nearest-even": "nearest, ties even",
@@ -27,7 +31,8 @@ const ROUNDING: Record<Spec["rounding"], string> = {
 };
 const OVERFLOW: Record<Spec["overflow"], string> = { saturate: "saturate", wrap: "wrap" };
 
-const control = "h-7 rounded border border-paper-400 bg-white px-1.5 text-[13px] text-ink-900 focus-visible:outline-2 focus-visible:outline-signal-500";
+const control =
+  "h-7 rounded border border-paper-400 bg-white px-1.5 text-[13px] text-ink-900 focus-visible:outline-2 focus-visible:outline-signal-500";
 
 function Derived({ spec }: { spec: Pick<Spec, "wordLength" | "fractionLength" | "signed"> }) {
   const { wordLength: w, fractionLength: f, signed } = spec;
@@ -102,7 +107,9 @@ function Editor({ revisionId, content, onDirtyChange }: Omit<SectionProps, "edit
       const detail = await update.mutateAsync({ ...content, fixedPoint } as RevisionContent);
       reset({ fixedPoint: detail.content.fixedPoint as Record<string, Spec> });
     } catch (err) {
-      const rest = placeServerIssues(err, ["fixedPoint"], (field, message) => setError(field as `fixedPoint.${string}`, { type: "server", message }));
+      const rest = placeServerIssues(err, ["fixedPoint"], (field, message) =>
+        setError(field as `fixedPoint.${string}`, { type: "server", message }),
+      );
       if (rest.length) setError("root.server", { type: "server", message: rest.join("; ") });
     }
   });
@@ -129,7 +136,12 @@ function Editor({ revisionId, content, onDirtyChange }: Omit<SectionProps, "edit
       </div>
     );
   };
-  const select = <K extends "scaling" | "rounding" | "overflow">(role: string, key: K, label: string, options: Record<string, string>) => (
+  const select = <K extends "scaling" | "rounding" | "overflow">(
+    role: string,
+    key: K,
+    label: string,
+    options: Record<string, string>,
+  ) => (
     <select aria-label={`${role} ${label}`} className={control} {...register(`fixedPoint.${role}.${key}`)}>
       {Object.entries(options).map(([v, text]) => (
         <option key={v} value={v}>
@@ -160,11 +172,21 @@ function Editor({ revisionId, content, onDirtyChange }: Omit<SectionProps, "edit
               <Td numeric>{num(role, "wordLength", "word length W (bits)")}</Td>
               <Td numeric>{num(role, "fractionLength", "fraction length F (bits)")}</Td>
               <Td>
-                <Derived spec={{ wordLength: values?.[role]?.wordLength ?? NaN, fractionLength: values?.[role]?.fractionLength ?? NaN, signed: values?.[role]?.signed ?? true }} />
+                <Derived
+                  spec={{
+                    wordLength: values?.[role]?.wordLength ?? NaN,
+                    fractionLength: values?.[role]?.fractionLength ?? NaN,
+                    signed: values?.[role]?.signed ?? true,
+                  }}
+                />
               </Td>
               <Td>
                 <label className="inline-flex items-center gap-1.5 text-[13px]">
-                  <input type="checkbox" className="accent-signal-700" {...register(`fixedPoint.${role}.signed`)} />
+                  <input
+                    type="checkbox"
+                    className="accent-signal-700"
+                    {...register(`fixedPoint.${role}.signed`)}
+                  />
                   <span>signed</span>
                   <span className="sr-only">({role})</span>
                 </label>

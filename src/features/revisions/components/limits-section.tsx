@@ -20,7 +20,10 @@ type FormIn = z.input<typeof FormSchema>;
 type FormOut = z.output<typeof FormSchema>;
 
 /** Each limit as a sentence fragment: the metric and whether the value is an upper or lower bound. */
-const LIMITS: Record<LimitKey, { label: string; bound: "≤" | "≥"; kinds: ReadonlyArray<RevisionContent["kind"]> }> = {
+const LIMITS: Record<
+  LimitKey,
+  { label: string; bound: "≤" | "≥"; kinds: ReadonlyArray<RevisionContent["kind"]> }
+> = {
   pslDbMax: { label: "Peak sidelobe level (PSL)", bound: "≤", kinds: ["waveform"] },
   islrDbMax: { label: "Integrated sidelobe ratio (ISLR)", bound: "≤", kinds: ["waveform"] },
   mismatchLossDbMax: { label: "Mismatch (SNR) loss", bound: "≤", kinds: ["waveform"] },
@@ -30,7 +33,8 @@ const LIMITS: Record<LimitKey, { label: string; bound: "≤" | "≥"; kinds: Rea
   passbandRippleDbMax: { label: "Passband ripple (peak-to-peak)", bound: "≤", kinds: ["filter"] },
 };
 
-const keysFor = (kind: RevisionContent["kind"]) => (Object.keys(LIMITS) as LimitKey[]).filter((k) => LIMITS[k].kinds.includes(kind));
+const keysFor = (kind: RevisionContent["kind"]) =>
+  (Object.keys(LIMITS) as LimitKey[]).filter((k) => LIMITS[k].kinds.includes(kind));
 
 /** An empty box means "not checked": the schema wants the key absent, not NaN. */
 const optionalNumber = (v: unknown) => (v === "" || v === null || v === undefined ? undefined : Number(v));
@@ -50,7 +54,13 @@ function ReadOnly({ content }: { content: RevisionContent }) {
           <Tr key={k}>
             <Td>{LIMITS[k].label}</Td>
             <Td className="font-mono">{LIMITS[k].bound}</Td>
-            <Td numeric>{content.limits[k] === undefined ? <span className="font-sans text-ink-600">not checked</span> : formatDb(content.limits[k])}</Td>
+            <Td numeric>
+              {content.limits[k] === undefined ? (
+                <span className="font-sans text-ink-600">not checked</span>
+              ) : (
+                formatDb(content.limits[k])
+              )}
+            </Td>
           </Tr>
         ))}
       </tbody>
@@ -77,26 +87,40 @@ function Editor({ revisionId, content, onDirtyChange }: Omit<SectionProps, "edit
   const current = watch("limits");
   const dirty = keysFor(content.kind).some((k) => {
     const v = current?.[k] as unknown;
-    const now = v === "" || v === undefined || (typeof v === "number" && Number.isNaN(v)) ? undefined : Number(v);
+    const now =
+      v === "" || v === undefined || (typeof v === "number" && Number.isNaN(v)) ? undefined : Number(v);
     return now !== content.limits[k];
   });
   useEffect(() => onDirtyChange?.(dirty), [dirty, onDirtyChange]);
   const onSubmit = handleSubmit(async ({ limits }) => {
     try {
       // Limits of the other kind are kept as they were: this form only shows the ones that apply.
-      const detail = await update.mutateAsync({ ...content, limits: { ...content.limits, ...limits } } as RevisionContent);
+      const detail = await update.mutateAsync({
+        ...content,
+        limits: { ...content.limits, ...limits },
+      } as RevisionContent);
       reset({ limits: detail.content.limits });
     } catch (err) {
-      const rest = placeServerIssues(err, ["limits"], (field, message) => setError(field as `limits.${LimitKey}`, { type: "server", message }));
+      const rest = placeServerIssues(err, ["limits"], (field, message) =>
+        setError(field as `limits.${LimitKey}`, { type: "server", message }),
+      );
       if (rest.length) setError("root.server", { type: "server", message: rest.join("; ") });
     }
   });
   return (
-    <form onSubmit={onSubmit} aria-label="Acceptance limits" className="flex flex-col gap-3 rounded border border-paper-300 bg-paper-50 p-3">
+    <form
+      onSubmit={onSubmit}
+      aria-label="Acceptance limits"
+      className="flex flex-col gap-3 rounded border border-paper-300 bg-paper-50 p-3"
+    >
       <p className="text-xs text-ink-600">Leave a box empty to not check that metric. All values in dB.</p>
       <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3">
         {keysFor(content.kind).map((k) => (
-          <Field key={k} label={`${LIMITS[k].label} ${LIMITS[k].bound} (dB)`} error={formState.errors.limits?.[k]?.message}>
+          <Field
+            key={k}
+            label={`${LIMITS[k].label} ${LIMITS[k].bound} (dB)`}
+            error={formState.errors.limits?.[k]?.message}
+          >
             {({ id, describedBy, invalid }) => (
               <Input
                 id={id}

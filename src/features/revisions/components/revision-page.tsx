@@ -55,7 +55,10 @@ function TableBlock({ table, detail }: { table: CoefficientTable; detail: Revisi
   const txKind = detail.content.kind === "waveform" ? detail.content.tx.kind : undefined;
   const fileBase = `${detail.project.slug}-design${detail.design.id}-r${detail.revision.number}-${table.role}`;
   return (
-    <article aria-labelledby={`table-${table.id}`} className="mb-5 rounded border border-paper-300 bg-white/60 p-3">
+    <article
+      aria-labelledby={`table-${table.id}`}
+      className="mb-5 rounded border border-paper-300 bg-white/60 p-3"
+    >
       <header className="mb-2 flex flex-wrap items-baseline gap-x-4 gap-y-1">
         <h3 id={`table-${table.id}`} className="font-mono text-sm font-semibold text-ink-900">
           {table.role}
@@ -88,9 +91,16 @@ function TableBlock({ table, detail }: { table: CoefficientTable; detail: Revisi
       <p className="mb-3 text-sm text-ink-800">
         <Source table={table} detail={detail} />
       </p>
-      <TablePlots revisionId={detail.revision.id} table={table} fm={isFm(table.source, txKind)} fileBase={fileBase} />
+      <TablePlots
+        revisionId={detail.revision.id}
+        table={table}
+        fm={isFm(table.source, txKind)}
+        fileBase={fileBase}
+      />
       <details className="mt-3">
-        <summary className="cursor-pointer text-sm font-medium text-signal-800">Coefficients ({formatCount(table.length)} rows)</summary>
+        <summary className="cursor-pointer text-sm font-medium text-signal-800">
+          Coefficients ({formatCount(table.length)} rows)
+        </summary>
         <div className="mt-2">
           <CoefficientGrid revisionId={detail.revision.id} table={table} />
         </div>
@@ -124,7 +134,8 @@ function Revision({ detail }: { detail: RevisionDetail }) {
       <PageHeader
         title={
           <span className="flex items-center gap-2">
-            {design.name} <span className="font-mono text-ink-600">r{revision.number}</span> <Badge tone={state.tone}>{state.label}</Badge>
+            {design.name} <span className="font-mono text-ink-600">r{revision.number}</span>{" "}
+            <Badge tone={state.tone}>{state.label}</Badge>
           </span>
         }
         subtitle={
@@ -166,11 +177,13 @@ function Revision({ detail }: { detail: RevisionDetail }) {
       <Section title="History">
         <ol className="flex flex-col gap-1 rounded border border-paper-300 bg-paper-50 px-4 py-3 text-sm text-ink-800">
           <li>
-            <span className="font-mono">{formatDateTime(revision.createdAt)}</span> · r{revision.number} created by {revision.createdBy.displayName}
+            <span className="font-mono">{formatDateTime(revision.createdAt)}</span> · r{revision.number}{" "}
+            created by {revision.createdBy.displayName}
           </li>
           {revision.submittedAt && (
             <li>
-              <span className="font-mono">{formatDateTime(revision.submittedAt)}</span> · submitted for review; content hash fixed
+              <span className="font-mono">{formatDateTime(revision.submittedAt)}</span> · submitted for
+              review; content hash fixed
             </li>
           )}
         </ol>
@@ -186,7 +199,12 @@ export function RevisionPage() {
   const valid = Number.isInteger(revisionId) && revisionId > 0;
   const query = useRevision(valid ? revisionId : -1);
   if (!valid || (query.error instanceof ApiError && query.error.status === 404)) {
-    return <PageNotFound title="Revision not found" message="This revision does not exist or you are not a member of its project" />;
+    return (
+      <PageNotFound
+        title="Revision not found"
+        message="This revision does not exist or you are not a member of its project"
+      />
+    );
   }
   if (query.isPending) return <PageLoading label="Loading revision" rows={4} />;
   if (query.isError) return <ErrorState error={query.error} onRetry={() => void query.refetch()} />;

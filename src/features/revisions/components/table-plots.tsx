@@ -20,7 +20,8 @@ import {
 function envelopeOf(data: XYData) {
   if (data.x.length <= ENVELOPE_THRESHOLD) return {};
   return {
-    reduce: (lo: number, hi: number, columns: number) => minMaxEnvelope(data, columns, ...visibleRange(data.x, lo, hi)),
+    reduce: (lo: number, hi: number, columns: number) =>
+      minMaxEnvelope(data, columns, ...visibleRange(data.x, lo, hi)),
     reduceNote: `min/max envelope of ${formatCount(data.x.length)} points`,
   };
 }
@@ -32,7 +33,17 @@ function dbFloor(db: Float64Array): number {
   return Math.floor(Math.max(-160, min) / 10) * 10;
 }
 
-function Plots({ table, samples, fm, fileBase }: { table: CoefficientTable; samples: Samples; fm: boolean; fileBase: string }) {
+function Plots({
+  table,
+  samples,
+  fm,
+  fileBase,
+}: {
+  table: CoefficientTable;
+  samples: Samples;
+  fm: boolean;
+  fileBase: string;
+}) {
   const fs = table.sampleRateHz;
   const time = useMemo(() => {
     const x = timeAxisUs(samples.re.length, fs);
@@ -50,8 +61,15 @@ function Plots({ table, samples, fm, fileBase }: { table: CoefficientTable; samp
   }, [samples, fs, table.complex]);
   const freq = useMemo(() => {
     const trace = table.role === "fir" ? firResponseDb(samples, fs, table.complex) : spectrumDb(samples, fs);
-    const traces: PlotTrace[] = [{ label: table.role === "fir" ? "|H|" : "Spectrum", unit: "dB", tone: "signal", values: trace.db }];
-    return { x: trace.freqMHz, traces, floor: dbFloor(trace.db), ...envelopeOf({ x: trace.freqMHz, ys: [trace.db] }) };
+    const traces: PlotTrace[] = [
+      { label: table.role === "fir" ? "|H|" : "Spectrum", unit: "dB", tone: "signal", values: trace.db },
+    ];
+    return {
+      x: trace.freqMHz,
+      traces,
+      floor: dbFloor(trace.db),
+      ...envelopeOf({ x: trace.freqMHz, ys: [trace.db] }),
+    };
   }, [samples, fs, table.role, table.complex]);
   const inst = useMemo(() => {
     if (!fm) return null;
@@ -72,10 +90,19 @@ function Plots({ table, samples, fm, fileBase }: { table: CoefficientTable; samp
         reduceNote={time.reduceNote}
       />
       <SignalPlot
-        title={table.role === "fir" ? `${table.role}: magnitude response` : `${table.role}: spectrum (0 dB at peak)`}
+        title={
+          table.role === "fir"
+            ? `${table.role}: magnitude response`
+            : `${table.role}: spectrum (0 dB at peak)`
+        }
         x={{ label: "Frequency", unit: "MHz", values: freq.x }}
         series={freq.traces}
-        yAxis={{ label: table.role === "fir" ? "Gain" : "Level", unit: "dB", min: freq.floor, max: table.role === "fir" ? undefined : 3 }}
+        yAxis={{
+          label: table.role === "fir" ? "Gain" : "Level",
+          unit: "dB",
+          min: freq.floor,
+          max: table.role === "fir" ? undefined : 3,
+        }}
         fileName={`${fileBase}-${table.role === "fir" ? "response" : "spectrum"}`}
         reduce={freq.reduce}
         reduceNote={freq.reduceNote}
@@ -96,7 +123,17 @@ function Plots({ table, samples, fm, fileBase }: { table: CoefficientTable; samp
 }
 
 /** Fetches one table's values and draws its plots (time, spectrum or response, and FM frequency). */
-export function TablePlots({ revisionId, table, fm, fileBase }: { revisionId: number; table: CoefficientTable; fm: boolean; fileBase: string }) {
+export function TablePlots({
+  revisionId,
+  table,
+  fm,
+  fileBase,
+}: {
+  revisionId: number;
+  table: CoefficientTable;
+  fm: boolean;
+  fileBase: string;
+}) {
   const values = useTableValues(revisionId, table.id);
   if (values.isPending)
     return (
@@ -105,6 +142,13 @@ export function TablePlots({ revisionId, table, fm, fileBase }: { revisionId: nu
         <Skeleton className="h-64 w-full" />
       </div>
     );
-  if (values.isError) return <ErrorState title={`The ${table.role} values could not be loaded`} error={values.error} onRetry={() => void values.refetch()} />;
+  if (values.isError)
+    return (
+      <ErrorState
+        title={`The ${table.role} values could not be loaded`}
+        error={values.error}
+        onRetry={() => void values.refetch()}
+      />
+    );
   return <Plots table={table} samples={values.data} fm={fm} fileBase={fileBase} />;
 }

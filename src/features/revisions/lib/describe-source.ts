@@ -6,8 +6,10 @@ import { formatEng } from "@/lib/format";
 
 type Json = Record<string, unknown>;
 
-const num = (o: Json, k: string): number | undefined => (typeof o[k] === "number" ? (o[k] as number) : undefined);
-const str = (o: Json, k: string): string | undefined => (typeof o[k] === "string" ? (o[k] as string) : undefined);
+const num = (o: Json, k: string): number | undefined =>
+  typeof o[k] === "number" ? (o[k] as number) : undefined;
+const str = (o: Json, k: string): string | undefined =>
+  typeof o[k] === "string" ? (o[k] as string) : undefined;
 const obj = (o: Json, k: string): Json | undefined =>
   typeof o[k] === "object" && o[k] !== null && !Array.isArray(o[k]) ? (o[k] as Json) : undefined;
 const eng = (v: number | undefined, unit: string) => (v === undefined ? "?" : formatEng(v, unit));
@@ -39,7 +41,9 @@ function codeWords(code: Json | undefined): string {
   const kind = str(code, "kind") ?? "?";
   const label = kind === "barker" ? "Barker" : kind === "frank" ? "Frank" : kind.toUpperCase();
   const size = num(code, "length") ?? num(code, "order");
-  return kind === "barker" ? `${label}-${size ?? "?"}` : `${label} ${code.order !== undefined ? "order" : "length"} ${size ?? "?"}`;
+  return kind === "barker"
+    ? `${label}-${size ?? "?"}`
+    : `${label} ${code.order !== undefined ? "order" : "length"} ${size ?? "?"}`;
 }
 
 /** One line saying where a table's values came from; uploads are described by the caller (file + hash). */
@@ -48,7 +52,10 @@ export function describeSource(source: Json): string {
   switch (source.kind) {
     case "lfm": {
       const ifHz = num(source, "intermediateFrequencyHz");
-      const out = str(source, "output") === "real" ? `real${ifHz !== undefined ? ` at IF ${eng(ifHz, "Hz")}` : ""}` : "complex baseband";
+      const out =
+        str(source, "output") === "real"
+          ? `real${ifHz !== undefined ? ` at IF ${eng(ifHz, "Hz")}` : ""}`
+          : "complex baseband";
       return `Linear FM ${str(source, "direction") === "down" ? "down" : "up"}-chirp, B = ${eng(num(source, "bandwidthHz"), "Hz")}, T = ${eng(num(source, "pulseWidthS"), "s")}, ${fs}, ${out}`;
     }
     case "nlfm":

@@ -11,5 +11,7 @@ export function lsb(fractionLength: number): number {
 /** The representable range [min, max] of a W-bit word at fraction length F (two's complement when signed). */
 export function qRange(wordLength: number, fractionLength: number, signed: boolean): [number, number] {
   const step = lsb(fractionLength);
-  return signed ? [-(2 ** (wordLength - 1)) * step, (2 ** (wordLength - 1) - 1) * step] : [0, (2 ** wordLength - 1) * step];
+  return signed
+    ? [-(2 ** (wordLength - 1)) * step, (2 ** (wordLength - 1) - 1) * step]
+    : [0, (2 ** wordLength - 1) * step];
 }

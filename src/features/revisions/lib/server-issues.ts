@@ -12,7 +12,12 @@ function issuesOf(err: unknown): Issue[] {
     if (typeof d !== "object" || d === null) return [];
     const { path, message } = d as { path?: unknown; message?: unknown };
     if (!Array.isArray(path) || typeof message !== "string") return [];
-    return [{ path: path.filter((p): p is string | number => typeof p === "string" || typeof p === "number"), message }];
+    return [
+      {
+        path: path.filter((p): p is string | number => typeof p === "string" || typeof p === "number"),
+        message,
+      },
+    ];
   });
 }
 
@@ -20,7 +25,11 @@ function issuesOf(err: unknown): Issue[] {
  * Calls `place(fieldPath, message)` for each issue whose path (without the leading `content`) starts with
  * one of `prefixes`; returns the messages no field took, for a form-level alert.
  */
-export function placeServerIssues(err: unknown, prefixes: readonly string[], place: (field: string, message: string) => void): string[] {
+export function placeServerIssues(
+  err: unknown,
+  prefixes: readonly string[],
+  place: (field: string, message: string) => void,
+): string[] {
   const rest: string[] = [];
   for (const { path, message } of issuesOf(err)) {
     const p = path[0] === "content" ? path.slice(1) : path;

@@ -18,9 +18,13 @@ const LITTLE_ENDIAN = new Uint8Array(Uint16Array.of(1).buffer)[0] === 1;
 
 /** Splits interleaved little-endian float64 bytes (the values endpoint's body) into I and Q. */
 export function fromInterleavedBytes(buffer: ArrayBuffer): Samples {
-  if (buffer.byteLength % 16 !== 0) throw new RangeError(`values body of ${buffer.byteLength} bytes is not a whole number of complex float64 pairs`);
+  if (buffer.byteLength % 16 !== 0)
+    throw new RangeError(
+      `values body of ${buffer.byteLength} bytes is not a whole number of complex float64 pairs`,
+    );
   // A Float64Array view reads host byte order; every browser host is little-endian, so refuse rather than misread.
-  if (!LITTLE_ENDIAN) throw new RangeError("this host is big-endian; stored values are little-endian float64");
+  if (!LITTLE_ENDIAN)
+    throw new RangeError("this host is big-endian; stored values are little-endian float64");
   return fromInterleaved(new Float64Array(buffer));
 }
 
@@ -91,7 +95,12 @@ export function spectrumDb(samples: Samples, sampleRateHz: number, minPoints = 4
  * FIR magnitude response 20·log10|H(f)| (absolute, so the DC gain shows) on ≥ 8192 points: real taps over
  * 0 … fs/2 (the response is symmetric), complex taps over −fs/2 … fs/2.
  */
-export function firResponseDb(taps: Samples, sampleRateHz: number, complex: boolean, minPoints = 8192): FrequencyTrace {
+export function firResponseDb(
+  taps: Samples,
+  sampleRateHz: number,
+  complex: boolean,
+  minPoints = 8192,
+): FrequencyTrace {
   const size = nextPow2(Math.max(minPoints, taps.re.length));
   const power = powerSpectrum(taps, size);
   const half = size / 2;
@@ -163,7 +172,8 @@ export function minMaxEnvelope(data: XYSeries, columns: number, start = 0, end =
   const lo = Math.max(0, Math.min(start, data.x.length));
   const hi = Math.max(lo, Math.min(end, data.x.length));
   const n = hi - lo;
-  if (columns < 1 || n <= 2 * columns) return { x: data.x.slice(lo, hi), ys: data.ys.map((y) => y.slice(lo, hi)) };
+  if (columns < 1 || n <= 2 * columns)
+    return { x: data.x.slice(lo, hi), ys: data.ys.map((y) => y.slice(lo, hi)) };
   const x = new Float64Array(2 * columns);
   const ys = data.ys.map(() => new Float64Array(2 * columns));
   for (let b = 0; b < columns; b++) {

@@ -7,7 +7,8 @@ import { tokenKeys } from "./keys";
 export function useCreateToken() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (input: CreateTokenInput) => api("/tokens", { method: "POST", body: input, schema: CreatedTokenSchema }),
+    mutationFn: (input: CreateTokenInput) =>
+      api("/tokens", { method: "POST", body: input, schema: CreatedTokenSchema }),
     onSuccess: () => void qc.invalidateQueries({ queryKey: tokenKeys.all }),
   });
 }

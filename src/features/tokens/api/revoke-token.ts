@@ -10,7 +10,8 @@ const ResponseSchema = z.object({ token: ApiTokenSchema });
 export function useRevokeToken() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (id: number) => api(`/tokens/${id}/revoke`, { method: "POST", schema: ResponseSchema }).then((r) => r.token),
+    mutationFn: (id: number) =>
+      api(`/tokens/${id}/revoke`, { method: "POST", schema: ResponseSchema }).then((r) => r.token),
     onSuccess: () => void qc.invalidateQueries({ queryKey: tokenKeys.all }),
   });
 }

@@ -22,11 +22,23 @@ const SELECT =
 /** The secret, once: copy it now, it is stored only as a SHA-256. */
 function NewSecret({ created, onDone }: { created: CreatedToken; onDone: () => void }) {
   return (
-    <div role="status" aria-label="New token" className="flex max-w-2xl flex-col gap-2 rounded border border-warn-100 bg-warn-50 px-4 py-3 text-sm text-warn-800">
-      <p className="font-semibold">Copy the token &ldquo;{created.token.name}&rdquo; now: it is shown only this once.</p>
-      <p>Tapwright keeps only its SHA-256, so nobody can show it again. Keep it in your CI&rsquo;s secret store, never in a repository.</p>
+    <div
+      role="status"
+      aria-label="New token"
+      className="flex max-w-2xl flex-col gap-2 rounded border border-warn-100 bg-warn-50 px-4 py-3 text-sm text-warn-800"
+    >
+      <p className="font-semibold">
+        Copy the token &ldquo;{created.token.name}&rdquo; now: it is shown only this once.
+      </p>
+      <p>
+        Tapwright keeps only its SHA-256, so nobody can show it again. Keep it in your CI&rsquo;s secret
+        store, never in a repository.
+      </p>
       <div className="flex items-center gap-2">
-        <code className="min-w-0 flex-1 overflow-x-auto rounded border border-paper-300 bg-white px-2 py-1 font-mono text-[13px] text-ink-900" data-testid="new-token-secret">
+        <code
+          className="min-w-0 flex-1 overflow-x-auto rounded border border-paper-300 bg-white px-2 py-1 font-mono text-[13px] text-ink-900"
+          data-testid="new-token-secret"
+        >
           {created.secret}
         </code>
         <CopyButton value={created.secret} label="Copy token" />
@@ -47,8 +59,11 @@ function CreateTokenForm({ onCreated }: { onCreated: (c: CreatedToken) => void }
   const [tried, setTried] = useState(false);
   const parsed = CreateTokenSchema.safeParse({ name, scope });
   const server = fieldErrors(create.error);
-  const nameError = (tried && !parsed.success ? parsed.error.issues.find((i) => i.path[0] === "name")?.message : undefined) ?? server.name;
-  const general = create.error instanceof ApiError && Object.keys(server).length === 0 ? create.error.message : undefined;
+  const nameError =
+    (tried && !parsed.success ? parsed.error.issues.find((i) => i.path[0] === "name")?.message : undefined) ??
+    server.name;
+  const general =
+    create.error instanceof ApiError && Object.keys(server).length === 0 ? create.error.message : undefined;
   return (
     <form
       noValidate
@@ -71,14 +86,30 @@ function CreateTokenForm({ onCreated }: { onCreated: (c: CreatedToken) => void }
       <div className="min-w-56 flex-1">
         <Field label="Token name" hint="What uses it, e.g. the nightly FPGA build." error={nameError}>
           {({ id, describedBy, invalid }) => (
-            <Input id={id} value={name} maxLength={80} aria-describedby={describedBy} invalid={invalid} onChange={(e) => setName(e.target.value)} />
+            <Input
+              id={id}
+              value={name}
+              maxLength={80}
+              aria-describedby={describedBy}
+              invalid={invalid}
+              onChange={(e) => setName(e.target.value)}
+            />
           )}
         </Field>
       </div>
       <div className="w-56">
-        <Field label="Scope" hint={scope === "read" ? "Downloads only (GET)." : "Can also change things, as your roles allow."}>
+        <Field
+          label="Scope"
+          hint={scope === "read" ? "Downloads only (GET)." : "Can also change things, as your roles allow."}
+        >
           {({ id, describedBy }) => (
-            <select id={id} aria-describedby={describedBy} className={SELECT} value={scope} onChange={(e) => setScope(e.target.value as TokenScope)}>
+            <select
+              id={id}
+              aria-describedby={describedBy}
+              className={SELECT}
+              value={scope}
+              onChange={(e) => setScope(e.target.value as TokenScope)}
+            >
               <option value="read">read (recommended)</option>
               <option value="read-write">read-write</option>
             </select>
@@ -131,7 +162,8 @@ function RevokeDialog({ token, onClose }: { token: ApiToken | null; onClose: () 
       }
     >
       <p className="text-sm text-ink-800">
-        Scripts using this token are refused from the next request on. This cannot be undone: create a new token to replace it.
+        Scripts using this token are refused from the next request on. This cannot be undone: create a new
+        token to replace it.
       </p>
       {revoke.error && (
         <p role="alert" className="mt-2 text-sm text-fail-700">
@@ -167,11 +199,24 @@ function TokenTable({ tokens, onRevoke }: { tokens: ApiToken[]; onRevoke: (t: Ap
               <Badge tone={t.scope === "read" ? "neutral" : "copper"}>{t.scope}</Badge>
             </Td>
             <Td className="font-mono text-[13px] whitespace-nowrap">{formatDateTime(t.createdAt)}</Td>
-            <Td className="font-mono text-[13px] whitespace-nowrap">{t.lastUsedAt ? formatDateTime(t.lastUsedAt) : "never"}</Td>
-            <Td>{t.revokedAt ? <Badge tone="fail">revoked {formatDateTime(t.revokedAt).slice(0, 10)}</Badge> : <Badge tone="pass">active</Badge>}</Td>
+            <Td className="font-mono text-[13px] whitespace-nowrap">
+              {t.lastUsedAt ? formatDateTime(t.lastUsedAt) : "never"}
+            </Td>
+            <Td>
+              {t.revokedAt ? (
+                <Badge tone="fail">revoked {formatDateTime(t.revokedAt).slice(0, 10)}</Badge>
+              ) : (
+                <Badge tone="pass">active</Badge>
+              )}
+            </Td>
             <Td className="text-right">
               {!t.revokedAt && (
-                <Button size="sm" variant="danger" aria-label={`Revoke ${t.name}`} onClick={() => onRevoke(t)}>
+                <Button
+                  size="sm"
+                  variant="danger"
+                  aria-label={`Revoke ${t.name}`}
+                  onClick={() => onRevoke(t)}
+                >
                   Revoke…
                 </Button>
               )}
@@ -193,16 +238,23 @@ export function TokensSection() {
       <Section title="API tokens">
         <div className="flex flex-col gap-4">
           <p className="max-w-2xl text-sm text-ink-700">
-            For build scripts and CI: send <code className="font-mono text-[13px]">Authorization: Bearer &lt;token&gt;</code>. A token acts as you,
-            within your projects; a read token can download but never change anything.
+            For build scripts and CI: send{" "}
+            <code className="font-mono text-[13px]">Authorization: Bearer &lt;token&gt;</code>. A token acts
+            as you, within your projects; a read token can download but never change anything.
           </p>
-          {created ? <NewSecret created={created} onDone={() => setCreated(null)} /> : <CreateTokenForm onCreated={setCreated} />}
+          {created ? (
+            <NewSecret created={created} onDone={() => setCreated(null)} />
+          ) : (
+            <CreateTokenForm onCreated={setCreated} />
+          )}
           {tokens.isPending ? (
             <TableSkeleton label="Loading tokens" rows={2} />
           ) : tokens.isError ? (
             <ErrorState error={tokens.error} onRetry={() => void tokens.refetch()} />
           ) : tokens.data.length === 0 ? (
-            <EmptyState title="No tokens yet">Create one above for each script or pipeline, so each can be revoked on its own.</EmptyState>
+            <EmptyState title="No tokens yet">
+              Create one above for each script or pipeline, so each can be revoked on its own.
+            </EmptyState>
           ) : (
             <TokenTable tokens={tokens.data} onRevoke={setRevoking} />
           )}
