@@ -47,8 +47,9 @@ export interface DegradationFigures {
    */
   snrLossDb: number | null;
   /**
-   * SNR loss with the self-noise added to the output thermal noise (input noise `inputNoiseRms` LSB
-   * per component, white): 10·log10(SNR_float / SNR_fixed). Null without a waveform.
+   * SNR loss with the self-noise added to the output thermal noise (white input noise of
+   * `inputNoiseRms` LSB per component): 10·log10(SNR_float / SNR_fixed), SNR = peak power over output
+   * noise power, the fixed noise being σ²·Σ|h_q|² plus the mean self-noise power. Null without a waveform.
    */
   snrLossWithSelfNoiseDb: number | null;
   /** 10·log10(mean |e|² over the sidelobe region / |y_float(peak)|²), e = y_fixed − y_float. */
@@ -144,8 +145,12 @@ export function fastConvolutionDegradation(opts: DegradationOptions): Degradatio
     const eFloat = energy(filter);
     const eFixed = energy(hq);
     snrLossDb = db10(gFloat / eFloat / (gFixed / eFixed));
+    // SNR = |peak|² / output noise power. Float: |y_float(peak)|² / (σ²·Σ|h|²). Fixed: the aligned
+    // peak scaled by the table's gain change, over σ²·Σ|h_q|² plus the self-noise power.
     const sigma2 = 2 * (opts.inputNoiseRms ?? 1) ** 2; // complex noise power per input sample
-    snrLossWithSelfNoiseDb = db10(gFloat / (sigma2 * eFloat) / (gFixed / (sigma2 * eFixed + selfNoise)));
+    const snrFloat = pFloat[peak]! / (sigma2 * eFloat);
+    const snrFixed = (pFloat[peak]! * (gFixed / gFloat)) / (sigma2 * eFixed + selfNoise);
+    snrLossWithSelfNoiseDb = db10(snrFloat / snrFixed);
   }
   return {
     float: mFloat,
