@@ -31,8 +31,8 @@ function directConvolution(
     for (let k = 0; k < h.re.length; k++) {
       const j = n - k;
       if (j < 0 || j >= x.re.length) continue;
-      re[n] += h.re[k]! * x.re[j]! - h.im[k]! * x.im[j]!;
-      im[n] += h.re[k]! * x.im[j]! + h.im[k]! * x.re[j]!;
+      re[n] = re[n]! + h.re[k]! * x.re[j]! - h.im[k]! * x.im[j]!;
+      im[n] = im[n]! + h.re[k]! * x.im[j]! + h.im[k]! * x.re[j]!;
     }
   return { re, im };
 }
