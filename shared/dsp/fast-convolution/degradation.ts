@@ -31,6 +31,12 @@ export interface DegradationOptions {
   sampleRateHz: number;
   /** A table to use instead of quantizing H from `filter` (e.g. the stored one). */
   table?: SpectrumTable;
+  /**
+   * Output samples [start, end) over which self-noise and error peaks are taken (the mainlobe is
+   * always excluded); default the whole output record. Blocks whose input is all zero give exactly
+   * zero, so a long empty record would dilute the mean: pass the target response's span.
+   */
+  sidelobeRegion?: { start: number; end: number };
   /** Thermal noise rms per I/Q component at the input, in input LSB, for `snrLossWithSelfNoiseDb` (default 1). */
   inputNoiseRms?: number;
 }
@@ -56,7 +62,7 @@ export interface DegradationFigures {
   selfNoiseDb: number;
   /** 10·log10(max |e|² over the sidelobe region / |y_float(peak)|²): the quantization peaks. */
   errorPeakDb: number;
-  /** Samples in the sidelobe region (the output record outside the float mainlobe). */
+  /** Samples in the sidelobe region (the region outside the float mainlobe). */
   sidelobeSamples: number;
   overflowCount: number;
   /** Per block: forward, product and inverse shifts (the block exponents). */
@@ -122,7 +128,18 @@ export function fastConvolutionDegradation(opts: DegradationOptions): Degradatio
   let sum = 0;
   let big = 0;
   let count = 0;
-  for (let i = 0; i < pFloat.length; i++) {
+  const region = opts.sidelobeRegion ?? { start: 0, end: pFloat.length };
+  if (
+    !Number.isInteger(region.start) ||
+    !Number.isInteger(region.end) ||
+    region.start < 0 ||
+    region.end > pFloat.length ||
+    region.start >= region.end
+  )
+    throw new RangeError(
+      `sidelobeRegion must satisfy 0 ≤ start < end ≤ ${pFloat.length} (the output length), got ${region.start}..${region.end}`,
+    );
+  for (let i = region.start; i < region.end; i++) {
     if (i >= lobe.left && i <= lobe.right) continue;
     const dr = fixed.re[i]! - ref.re[i]!;
     const di = fixed.im[i]! - ref.im[i]!;
@@ -226,6 +243,8 @@ export interface WidthSweepOptions {
   dataBits: readonly number[];
   twiddleBits: readonly number[];
   limits: WidthLimits;
+  /** As in DegradationOptions. */
+  sidelobeRegion?: { start: number; end: number };
 }
 
 /**
@@ -262,6 +281,7 @@ export function widthSweep(opts: WidthSweepOptions): {
         spec,
         sampleRateHz: opts.sampleRateHz,
         table,
+        sidelobeRegion: opts.sidelobeRegion,
       });
       const failed = failures(figures, opts.limits);
       points.push({ dataBits: wd, twiddleBits: wt, figures, passes: failed.length === 0, failed });
@@ -272,6 +292,15 @@ export function widthSweep(opts: WidthSweepOptions): {
     if (p) return { points, smallest: { dataBits: p.dataBits, twiddleBits: p.twiddleBits } };
   }
   return { points, smallest: null };
+}
+
+/** The output span [delay, delay + Ns + L − 1) of an echo's compressed response (Ns pulse, L filter samples). */
+export function responseSpan(
+  delay: number,
+  pulseLength: number,
+  filterLength: number,
+): { start: number; end: number } {
+  return { start: delay, end: delay + pulseLength + filterLength - 1 };
 }
 
 /** An echo of `waveform` (amplitude 1) delayed by `delay` samples in a record of `length` samples. */
@@ -292,7 +321,8 @@ export function pointTarget(waveform: ComplexSignal, delay: number, length: numb
  * Block-edge effect: the same point target with its compressed peak in the middle of output block 1
  * and exactly on the boundary between blocks 1 and 2 (first output sample of block 2), so the
  * mainlobe and near sidelobes straddle two blocks with their own exponents. The record holds
- * four blocks' worth of input; the input is quantized to Wd bits at full scale.
+ * four blocks' worth of input; the input is quantized to Wd bits at full scale; self-noise and
+ * error peaks are taken over the response's span.
  */
 export function blockEdgeEffect(opts: {
   waveform: ComplexSignal;
@@ -315,6 +345,7 @@ export function blockEdgeEffect(opts: {
       spec,
       sampleRateHz: opts.sampleRateHz,
       table,
+      sidelobeRegion: responseSpan(peakAt - (l - 1), waveform.re.length, l),
     });
   const boundary = spec.method === "overlap-save" ? 2 * b : 2 * b + Math.floor(l / 2);
   return { inside: run(b + Math.floor(b / 2)), straddling: run(boundary), boundary };

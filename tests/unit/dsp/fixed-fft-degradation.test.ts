@@ -9,6 +9,7 @@ import {
   fastConvolutionDegradation,
   inputCodes,
   pointTarget,
+  responseSpan,
   widthSweep,
 } from "@shared/dsp/fast-convolution/degradation";
 import type { StageSchedule } from "@shared/dsp/fast-convolution/fixed-fft";
@@ -155,6 +156,32 @@ describe("degradation figures agree with an independent computation", () => {
     expect(m.snrLossDb!).toBeGreaterThan(0);
   });
 
+  it("the sidelobe region is checked and restricts the average", () => {
+    const s = lfm(32);
+    const h = matchedFilter(s);
+    const sp = spec({ n: 128, b: 97, wd: 10 });
+    const x = inputCodes(pointTarget(s, 300, 600), 10); // blocks 0–2 see no signal: exact zeros
+    const all = fastConvolutionDegradation({ input: x, filter: h, spec: sp, sampleRateHz: FS });
+    const span = fastConvolutionDegradation({
+      input: x,
+      filter: h,
+      spec: sp,
+      sampleRateHz: FS,
+      sidelobeRegion: responseSpan(300, 32, 32),
+    });
+    expect(span.sidelobeSamples).toBeLessThan(all.sidelobeSamples);
+    expect(span.selfNoiseDb).toBeGreaterThan(all.selfNoiseDb);
+    expect(() =>
+      fastConvolutionDegradation({
+        input: x,
+        filter: h,
+        spec: sp,
+        sampleRateHz: FS,
+        sidelobeRegion: { start: 10, end: 700 },
+      }),
+    ).toThrow(/sidelobeRegion must satisfy 0 ≤ start < end ≤ 631 \(the output length\), got 10..700/);
+  });
+
   it("wide words: the fixed path equals float direct convolution", () => {
     const s = lfm(100);
     const h = matchedFilter(s, { kind: "taylor", nbar: 5, sidelobeDb: -35 });
@@ -231,6 +258,7 @@ describe("width sweep", () => {
       dataBits: [10, 11, 12, 13, 14],
       twiddleBits: [6, 8, 10, 12],
       limits: { selfNoiseDbMax: -70, pslDbMax: -30 },
+      sidelobeRegion: responseSpan(50, 128, 128),
     });
     expect(r.points).toHaveLength(20);
     expect(r.smallest).not.toBeNull();
