@@ -316,9 +316,10 @@ describe("published scale: block floating point at 9-bit data, 4,096-point FFT c
   // sample of a block to one step set by the block's largest value (here the compressed peak), so its
   // self-noise floor relative to the peak sits higher. Measured with this model (LFM 8 MHz, 1,024
   // samples at 10 MHz, rectangular matched filter, one overlap-add segment of 3,073 samples, 9-bit
-  // twiddles and table, nearest-even): −59.7 dB MSE (measured rule), −59.0 dB (worst-case rule),
-  // quantization peaks −43 dB; the published −70 dB scale is reached at 12-bit data (−71.3 dB).
-  // The test pins that finding: about 10 dB above the published floor at 9 bits, below it at 12.
+  // twiddles and table, nearest-even, MSE over the response span): −57.1 dB (measured rule), −57.0 dB
+  // (worst-case rule), quantization peaks −43 dB; 10 bits −59.9, 11 bits −64.2, 12 bits −70.2 dB.
+  // The test pins that finding — about 13 dB above the published floor at 9 bits, at it with 12 bits
+  // (the model is deterministic, so the 0.2 dB margin at 12 bits is not noise) — instead of forcing it.
   const s = lfm(1024);
   const h = matchedFilter(s);
   const x = pointTarget(s, 300, 3073);
@@ -339,12 +340,12 @@ describe("published scale: block floating point at 9-bit data, 4,096-point FFT c
       sampleRateHz: FS,
     });
 
-  it("9-bit data: self-noise ≈ −60 dB re peak, quantization peaks ≈ −43 dB (published floating point: < −70, ≈ −50)", () => {
+  it("9-bit data: self-noise ≈ −57 dB re peak, quantization peaks ≈ −43 dB (published floating point: < −70, ≈ −50)", () => {
     for (const rule of ["measured", "worst-case"] as const) {
       const f = run(9, rule);
       expect(f.overflowCount).toBe(0);
-      expect(f.selfNoiseDb).toBeGreaterThan(-63);
-      expect(f.selfNoiseDb).toBeLessThan(-56);
+      expect(f.selfNoiseDb).toBeGreaterThan(-61);
+      expect(f.selfNoiseDb).toBeLessThan(-54);
       expect(f.errorPeakDb).toBeGreaterThan(-48);
       expect(f.errorPeakDb).toBeLessThan(-38);
     }
