@@ -42,8 +42,20 @@ start)
     fi
   fi
   EXTRA=""; [ "$MODE" = test ] && EXTRA="-c fsync=off -c synchronous_commit=off -c full_page_writes=off"
-  "${AS[@]}" "$BIN/pg_ctl" -D "$DATA" status >/dev/null 2>&1 || "${AS[@]}" "$BIN/pg_ctl" -D "$DATA" -l "$BASE/server.log" -w -t 30 start \
-    -o "-p $PGPORT -k $SOCK -c listen_addresses=127.0.0.1 -c max_connections=200 $EXTRA" >/dev/null
+  if "${AS[@]}" "$BIN/pg_ctl" -D "$DATA" status >/dev/null 2>&1; then
+    # Already running (another npm start in this folder): only usable if it listens on the port asked for.
+    RUNNING_PORT="$(sed -n 4p "$DATA/postmaster.pid" 2>/dev/null || true)"
+    if [ -n "$RUNNING_PORT" ] && [ "$RUNNING_PORT" != "$PGPORT" ]; then
+      echo "database: the cluster in $BASE is already running on port $RUNNING_PORT, not $PGPORT (another instance in this folder?); one folder's cluster serves one port: use another clone, or PGBASE=another-folder" >&2; exit 1
+    fi
+  else
+    if (exec 3<>"/dev/tcp/127.0.0.1/$PGPORT") 2>/dev/null; then
+      echo "database port 127.0.0.1:$PGPORT is in use by another program (another Tapwright's PostgreSQL?): set PGPORT to a free one" >&2; exit 1
+    fi
+    "${AS[@]}" "$BIN/pg_ctl" -D "$DATA" -l "$BASE/server.log" -w -t 30 start \
+      -o "-p $PGPORT -k $SOCK -c listen_addresses=127.0.0.1 -c max_connections=200 $EXTRA" >/dev/null \
+      || { echo "database: PostgreSQL did not start on port $PGPORT; its log: $BASE/server.log" >&2; tail -5 "$BASE/server.log" >&2; exit 1; }
+  fi
   for _ in $(seq 50); do "$BIN/pg_isready" -q -h 127.0.0.1 -p "$PGPORT" && break; sleep 0.2; done
   if [ "$MODE" = test ]; then PASS="$ROLE"; P=("$BIN/psql" -h 127.0.0.1 -p "$PGPORT" -U postgres -qAt -v ON_ERROR_STOP=1)
   else PASS="$(cat "$BASE/password")"; P=("${AS[@]}" "$BIN/psql" -h "$SOCK" -p "$PGPORT" -U postgres -qAt -v ON_ERROR_STOP=1); fi

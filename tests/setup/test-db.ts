@@ -56,3 +56,15 @@ export async function createTestDatabase(): Promise<{ url: string; drop(): Promi
       withAdminClient((c) => c.query(`drop database if exists "${name}" with (force)`)).then(() => undefined),
   };
 }
+
+/** An empty database (no tables, no demo rows), for tests of a first start; drop() removes it. */
+export async function createEmptyDatabase(): Promise<{ url: string; drop(): Promise<void> }> {
+  const name = `tapwright_e_${process.pid}_${randomBytes(4).toString("hex")}`;
+  const owner = new URL(clusterUrl()).username || "tapwright";
+  await withAdminClient((c) => c.query(`create database "${name}" owner "${owner}"`));
+  return {
+    url: urlForDatabase(clusterUrl(), name),
+    drop: () =>
+      withAdminClient((c) => c.query(`drop database if exists "${name}" with (force)`)).then(() => undefined),
+  };
+}
