@@ -1,13 +1,17 @@
 #!/usr/bin/env bash
 # Local PostgreSQL cluster for Tapwright, from Debian's packages.
 #   scripts/pg.sh start|stop|destroy|status   [env: PGPORT, PGBASE, PGMODE=dev|test]
-# dev  (npm start): data in .pg/, fsync on, scram-sha-256, password generated once into .pg/password (0600).
+# dev  (npm start): data in .pg/ (.pg/port-N/ for a PGPORT other than 54329), fsync on, scram-sha-256, password generated once into .pg/password (0600).
 # test (npm test):  data in .pg-test/<port>/, fsync off, trust auth on loopback; removed by `destroy`.
 # Prints DATABASE_URL=... on start (test mode also ADMIN_DATABASE_URL=..., the cluster's superuser).
 set -euo pipefail
 ROOT="$(cd "$(dirname "$0")/.." && pwd)"; cd /
 MODE="${PGMODE:-dev}"
-if [ "$MODE" = test ]; then PGPORT="${PGPORT:-54339}"; DEFBASE="$ROOT/.pg-test/$PGPORT"; else PGPORT="${PGPORT:-54329}"; DEFBASE="$ROOT/.pg"; fi
+if [ "$MODE" = test ]; then PGPORT="${PGPORT:-54339}"; DEFBASE="$ROOT/.pg-test/$PGPORT"
+else
+  # Another PGPORT is another instance: its own cluster in .pg/port-N/, so two can run from one folder.
+  PGPORT="${PGPORT:-54329}"; DEFBASE="$ROOT/.pg"; [ "$PGPORT" = 54329 ] || DEFBASE="$ROOT/.pg/port-$PGPORT"
+fi
 BASE="${PGBASE:-$DEFBASE}"
 DB="${PGDB:-tapwright}"; ROLE="${PGROLE:-tapwright}"
 BIN="$(ls -d /usr/lib/postgresql/*/bin 2>/dev/null | sort -V | tail -1 || true)"

@@ -100,7 +100,10 @@ let databaseUrl = process.env.DATABASE_URL;
 let ownCluster = false;
 const pgEnv = { ...process.env, PGMODE: "dev" };
 if (!databaseUrl) {
-  say("starting PostgreSQL (scripts/pg.sh, data in .pg/)...");
+  const pgPort = process.env.PGPORT ?? "54329";
+  say(
+    `starting PostgreSQL on 127.0.0.1:${pgPort} (scripts/pg.sh, data in ${process.env.PGBASE ?? (pgPort === "54329" ? ".pg/" : `.pg/port-${pgPort}/`)})...`,
+  );
   const r = spawnSync("bash", [path.join(ROOT, "scripts", "pg.sh"), "start"], {
     cwd: ROOT,
     env: pgEnv,
@@ -226,10 +229,21 @@ if (DEV) {
   const sources = ["src", "shared", "index.html", "vite.config.ts", "tailwind.config.ts", "public"].map((p) =>
     newest(path.join(ROOT, p)),
   );
-  if (!existsSync(distIndex) || Math.max(...sources) > mtime(distIndex)) {
+  const stale = () => !existsSync(distIndex) || Math.max(...sources) > mtime(distIndex);
+  if (stale()) {
     say("building the client (vite build)...");
     const vite = path.join(ROOT, "node_modules", "vite", "bin", "vite.js");
-    if (run(process.execPath, [vite, "build", "--logLevel", "warn"], { env: baseEnv }).status !== 0) {
+    let built = false;
+    // A second instance starting in the same folder may find Vite's build lock held: wait for that build.
+    for (let attempt = 0; attempt < 3 && !built; attempt += 1) {
+      if (attempt > 0) {
+        say("another build of this folder is running; waiting for it...");
+        for (let i = 0; i < 60 && stale(); i += 1) await new Promise((r) => setTimeout(r, 1000));
+        if (!stale()) break;
+      }
+      built = run(process.execPath, [vite, "build", "--logLevel", "warn"], { env: baseEnv }).status === 0;
+    }
+    if (!built && stale()) {
       stopCluster();
       fail("the client build failed");
     }
