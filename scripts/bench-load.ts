@@ -195,6 +195,14 @@ async function main(): Promise<void> {
       doc = marker >= 0 ? `${doc.slice(0, marker)}${section}\n${doc.slice(marker)}` : `${doc}\n${section}`;
     }
     writeFileSync(docPath, doc);
+    // The repository is prettier-formatted (markdown tables aligned); keep the generated page so.
+    spawnSync(
+      process.execPath,
+      [path.join(ROOT, "node_modules", "prettier", "bin", "prettier.cjs"), "--write", docPath],
+      {
+        stdio: "ignore",
+      },
+    );
   } finally {
     if (server && server.exitCode === null) {
       server.kill("SIGTERM");

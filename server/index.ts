@@ -126,6 +126,12 @@ function shutdown(signal: string): void {
       .stop()
       .catch(() => undefined)
       .then(() => workerStopped)
+      .then(async () => {
+        // A handler can outlive its socket (closed above): let its queries finish (up to 5 s) before the pool ends.
+        const busy = () =>
+          database.pool.waitingCount > 0 || database.pool.idleCount < database.pool.totalCount;
+        for (let i = 0; i < 50 && busy(); i += 1) await new Promise((r) => setTimeout(r, 100));
+      })
       .then(() => database.pool.end())
       .then(
         () => process.exit(0),
