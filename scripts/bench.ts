@@ -150,3 +150,12 @@ if (!process.argv.includes("--dsp-only")) {
     { stdio: "inherit" },
   );
 }
+
+// `npm run bench -- --load`: also the HTTP load figures (scripts/bench-load.ts, own cluster and server).
+if (process.argv.includes("--load")) {
+  execFileSync(
+    process.execPath,
+    ["--import", "tsx", fileURLToPath(new URL("./bench-load.ts", import.meta.url))],
+    { stdio: "inherit" },
+  );
+}

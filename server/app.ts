@@ -9,7 +9,7 @@ import { fileURLToPath } from "node:url";
 import { pinoHttp } from "pino-http";
 import pino, { type Logger } from "pino";
 import { bearerAuth } from "./auth/bearer";
-import { createPassport } from "./auth/passport";
+import { createPassport, forgetSessionUsers } from "./auth/passport";
 import type { Database } from "./db/client";
 import { apiNotFound, errorHandler } from "./http/errors";
 import { accountRoutes } from "./routes/account";
@@ -118,6 +118,18 @@ export function createApp(deps: AppDeps): CreatedApp {
       deps.pruneSessionsMinutes === false ? false : (deps.pruneSessionsMinutes ?? 15) * 60,
     errorLog: (...args: unknown[]) => logger.error({ args }, "session store error"),
   });
+  // Rolling sessions would rewrite the session row on every request (a write per GET); renew a session's expiry
+  // in the table at most once a minute. The cookie is still renewed on every answer; the row lags by ≤ 60 s of 8 h.
+  const touch = store.touch.bind(store);
+  const touchedAt = new Map<string, number>();
+  store.touch = (sid, sess, cb) => {
+    const now = Date.now();
+    const last = touchedAt.get(sid);
+    if (last !== undefined && now - last < 60_000) return cb?.();
+    if (touchedAt.size >= 10_000) touchedAt.clear();
+    touchedAt.set(sid, now);
+    touch(sid, sess, cb);
+  };
   app.use(
     session({
       name: SESSION_COOKIE,
@@ -136,6 +148,11 @@ export function createApp(deps: AppDeps): CreatedApp {
     }),
   );
   const passport = createPassport(database.db);
+  app.use((req, res, next) => {
+    if (req.method !== "GET" && req.method !== "HEAD" && req.method !== "OPTIONS")
+      res.once("finish", forgetSessionUsers).once("close", forgetSessionUsers);
+    next();
+  });
   app.use(passport.initialize());
   app.use(passport.session());
   app.use(auditRequestContext);

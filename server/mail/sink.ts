@@ -79,11 +79,13 @@ export async function startMailSink(o: SinkOptions): Promise<MailSink> {
     },
   });
   const host = o.host ?? "127.0.0.1";
+  // SMTPServer re-emits its net.Server's errors on itself: a listen error (EADDRINUSE) must be caught there, or
+  // the emit without a listener throws and ends the process before the caller can fall back to another port.
   await new Promise<void>((resolve, reject) => {
     const onError = (err: Error) => reject(err);
-    server.server.once("error", onError);
+    server.once("error", onError);
     server.listen(o.port, host, () => {
-      server.server.off("error", onError);
+      server.off("error", onError);
       resolve();
     });
   });

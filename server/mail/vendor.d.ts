@@ -34,6 +34,8 @@ declare module "smtp-server" {
     listen(port: number, host: string, callback?: () => void): Server;
     close(callback?: () => void): void;
     on(event: "error", listener: (err: Error) => void): this;
+    once(event: "error", listener: (err: Error) => void): this;
+    off(event: "error", listener: (err: Error) => void): this;
   }
 }
 

@@ -4,7 +4,7 @@
  * insert (a failed build releases nothing). Versions are unique per design and never reused: a withdrawn
  * release keeps its version and stays readable with its reason.
  */
-import { and, desc, eq, inArray, isNotNull, isNull, sql, type SQL } from "drizzle-orm";
+import { and, desc, eq, inArray, isNull, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import {
   parseVersion,
@@ -63,19 +63,29 @@ function filesOf(manifest: unknown): ReleaseFile[] {
   });
 }
 
-/** Release JSON for every row matching a condition, newest first. */
-export async function releaseRows(db: Db | Tx, where: SQL | undefined): Promise<Release[]> {
-  const rows = await db
+/** Releases with their design, project, revision and people joined; add a where and an order. */
+function selectReleases(db: Db | Tx) {
+  return db
     .select(releaseColumns)
     .from(releases)
     .innerJoin(designs, eq(designs.id, releases.designId))
     .innerJoin(projects, eq(projects.id, designs.projectId))
     .innerJoin(revisions, eq(revisions.id, releases.revisionId))
     .innerJoin(releaser, eq(releaser.id, releases.releasedById))
-    .leftJoin(withdrawer, eq(withdrawer.id, releases.withdrawnById))
-    .where(where)
-    .orderBy(desc(releases.releasedAt), desc(releases.id));
-  return rows.map((r) => ({
+    .leftJoin(withdrawer, eq(withdrawer.id, releases.withdrawnById));
+}
+
+type ReleaseRow = Awaited<ReturnType<ReturnType<typeof selectReleases>["execute"]>>[number];
+
+/** Release JSON for every row matching a condition, newest first. */
+export async function releaseRows(db: Db | Tx, where: SQL | undefined): Promise<Release[]> {
+  const rows = await selectReleases(db).where(where).orderBy(desc(releases.releasedAt), desc(releases.id));
+  return rows.map(toRelease);
+}
+
+/** One joined row as release JSON. */
+function toRelease(r: ReleaseRow): Release {
+  return {
     id: r.id,
     designId: r.designId,
     designName: r.designName,
@@ -102,7 +112,7 @@ export async function releaseRows(db: Db | Tx, where: SQL | undefined): Promise<
         : null,
     // A waveform design's release carries its transmit table (DESIGN.md "Cautions").
     transmit: r.designKind === "waveform",
-  }));
+  };
 }
 
 /** Projects the viewer belongs to (admins: all), as a condition on projects.id. */
@@ -130,21 +140,53 @@ export async function designReleases(db: Db, viewer: Viewer, designId: number): 
   return releaseRows(db, eq(releases.designId, designId));
 }
 
+/**
+ * The list as a named prepared statement (one for admins, one for members): drizzle builds its SQL once and
+ * PostgreSQL plans it once per connection instead of on every request (planning the six-table join cost
+ * several times its execution). Absent filters are NULL parameters.
+ */
+function prepareReleaseList(db: Db, member: boolean) {
+  const p = sql.placeholder;
+  return selectReleases(db)
+    .where(
+      and(
+        member
+          ? inArray(
+              projects.id,
+              db
+                .select({ id: projectMembers.projectId })
+                .from(projectMembers)
+                .where(eq(projectMembers.userId, p("viewer"))),
+            )
+          : undefined,
+        sql`(${p("project")}::text is null or ${projects.slug} = ${p("project")})`,
+        sql`(${p("design")}::integer is null or ${releases.designId} = ${p("design")})`,
+        sql`(${p("status")}::text is null or (${releases.withdrawnAt} is not null) = (${p("status")}::text = 'withdrawn'))`,
+      ),
+    )
+    .orderBy(desc(releases.releasedAt), desc(releases.id))
+    .prepare(member ? "releases_list_member" : "releases_list_all");
+}
+const releaseLists = new WeakMap<
+  Db,
+  { all: ReturnType<typeof prepareReleaseList>; member: ReturnType<typeof prepareReleaseList> }
+>();
+
 /** GET /api/releases?project&design&status, always within my projects. */
 export async function listReleases(db: Db, viewer: Viewer, q: ReleaseListQuery): Promise<Release[]> {
-  return releaseRows(
-    db,
-    and(
-      myProjects(db, viewer),
-      q.project !== undefined ? eq(projects.slug, q.project) : undefined,
-      q.design !== undefined ? eq(releases.designId, q.design) : undefined,
-      q.status === "withdrawn"
-        ? isNotNull(releases.withdrawnAt)
-        : q.status === "active"
-          ? isNull(releases.withdrawnAt)
-          : undefined,
-    ),
-  );
+  let lists = releaseLists.get(db);
+  if (!lists) {
+    lists = { all: prepareReleaseList(db, false), member: prepareReleaseList(db, true) };
+    releaseLists.set(db, lists);
+  }
+  const statement = viewer.roles.includes("admin") ? lists.all : lists.member;
+  const rows = await statement.execute({
+    viewer: viewer.id,
+    project: q.project ?? null,
+    design: q.design ?? null,
+    status: q.status === "withdrawn" || q.status === "active" ? q.status : null,
+  });
+  return rows.map(toRelease);
 }
 
 /**

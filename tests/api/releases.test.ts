@@ -51,17 +51,15 @@ describe("only what was approved is released", () => {
     const r2Id = (r2.body as { revision: { id: number } }).revision.id;
     const content = (await author.get(`/api/revisions/${r2Id}`)).body.content;
     expectStatus(
-      await author
-        .patch(`/api/revisions/${r2Id}`)
-        .send({
-          content: {
-            ...content,
-            fixedPoint: {
-              tx: { wordLength: 12, fractionLength: 11 },
-              rx: { wordLength: 12, fractionLength: 11 },
-            },
+      await author.patch(`/api/revisions/${r2Id}`).send({
+        content: {
+          ...content,
+          fixedPoint: {
+            tx: { wordLength: 12, fractionLength: 11 },
+            rx: { wordLength: 12, fractionLength: 11 },
           },
-        }),
+        },
+      }),
       200,
     );
     await finishAnalysis(t.database, r2Id);

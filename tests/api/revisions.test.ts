@@ -80,11 +80,9 @@ describe("editing a draft", () => {
     expect(expectError(kind, 400, "validation_failed").details).toEqual([
       { path: ["content", "kind"], message: "this design is a waveform" },
     ]);
-    const bad = await author
-      .patch(`/api/revisions/${revision.id}`)
-      .send({
-        content: { ...barker(13), fixedPoint: { tx: { wordLength: 40, fractionLength: 0 }, rx: Q15 } },
-      });
+    const bad = await author.patch(`/api/revisions/${revision.id}`).send({
+      content: { ...barker(13), fixedPoint: { tx: { wordLength: 40, fractionLength: 0 }, rx: Q15 } },
+    });
     const paths = (expectError(bad, 400, "validation_failed").details as { path: unknown[] }[]).map((d) =>
       d.path.join("."),
     );

@@ -15,9 +15,11 @@ export default function setup(): Promise<void> {
 }
 
 async function buildTemplate(): Promise<void> {
+  // Dropped and created as the cluster's superuser (tests/setup/test-db.ts), owned by the test role.
+  const owner = new URL(clusterUrl()).username || "tapwright";
   await withAdminClient(async (c) => {
     await c.query(`drop database if exists "${TEMPLATE_DATABASE}" with (force)`);
-    await c.query(`create database "${TEMPLATE_DATABASE}"`);
+    await c.query(`create database "${TEMPLATE_DATABASE}" owner "${owner}"`);
   });
   const database = openDatabase(urlForDatabase(clusterUrl(), TEMPLATE_DATABASE), 1);
   try {
@@ -28,4 +30,6 @@ async function buildTemplate(): Promise<void> {
     // No connection may stay open on a template, or cloning it fails.
     await database.pool.end();
   }
+  // Nothing connects to the template from here on (autovacuum included), so cloning never finds it busy.
+  await withAdminClient((c) => c.query(`alter database "${TEMPLATE_DATABASE}" allow_connections false`));
 }
