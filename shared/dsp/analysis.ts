@@ -26,7 +26,6 @@ import { linearFm } from "./lfm";
 import { matchedFilter } from "./matched-filter";
 import {
   coefficientSqnrDb,
-  measureInterpolated,
   mismatchLossDb,
   peakLossDb,
   type ResponseMetrics,
@@ -34,6 +33,7 @@ import {
 import { nonlinearFm } from "./nlfm";
 import { phaseCode } from "./phase-codes";
 import { quantize } from "./quantize";
+import { measureRefined } from "./refine";
 import { confirmSmallest, fullResponse, prepareSweep, refinedResponse, type SweepRow } from "./sweep";
 import type { AcceptanceLimits, ComplexSignal, FixedPointSpec, QuantizedTable } from "./types";
 
@@ -398,21 +398,15 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
   const sqSpec = spectrumOf(sq, size);
   const expectedIndex = (n - 1) * u;
   const measureOpts = { interpolation: u, sampleRateHz: fs, expectedIndex };
-  // One interpolation scratch for every ×U output of this analysis; the complex float output is kept
-  // only for the sweep, the fixed one never (its |y|² is all the figures and plots need).
+  // One interpolation scratch for every output of this analysis; each output keeps its own ×2 grid
+  // (the plots and the sweep read the ×U points from it, shared/dsp/refine.ts).
   const workspace = { interpolation: interpolationWorkspace(size) };
   progress(0.1, "float");
   const hSpec = spectrumOf(h, size);
-  const fl = measureInterpolated(multiplySpectra(sSpec, hSpec, hSpec), measureOpts, {
-    complex: spec.sweep !== undefined,
-    workspace,
-  });
+  const fl = measureRefined(multiplySpectra(sSpec, hSpec, hSpec), measureOpts, workspace);
   progress(0.35, "fixed");
   const hqSpec = spectrumOf(hq, size);
-  const fx = measureInterpolated(multiplySpectra(sqSpec, hqSpec, hqSpec), measureOpts, {
-    complex: false,
-    workspace,
-  });
+  const fx = measureRefined(multiplySpectra(sqSpec, hqSpec, hqSpec), measureOpts, workspace);
   const floatFig = compressionFigures(fl.metrics, mismatchLossDb(s, h));
   const fixedFig = compressionFigures(
     fx.metrics,
@@ -424,23 +418,33 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
   const fixedFlat = flat(fixedFig);
   const limits = checkLimits(spec.limits, fixedFlat, worstOf(tables));
 
-  // Plots: whole output (up to the end of the linear convolution) and the mainlobe at full resolution.
-  const ref = fl.power[fl.metrics.peakPositionSamples * u]!;
+  // Plots: whole output (up to the end of the linear convolution) on the ×2 grid, and the mainlobe at
+  // the full ×U resolution (read from the ×2 grids by band-limited interpolation).
+  const ref = fl.metrics.peakAmplitude ** 2;
   const dbOf = (p: number) => toDb(p, ref);
   const xOf = (i: number) => (i - expectedIndex) / u;
-  const span = Math.min((2 * n - 1) * u, fl.power.length);
+  const span = Math.min((2 * n - 1) * u, size * u);
+  const span2 = Math.min(2 * (2 * n - 1), 2 * size);
   const lobe = Math.max(-fl.metrics.mainlobeSamples.left, fl.metrics.mainlobeSamples.right, 1);
   const zoomHalf = Math.min(Math.ceil(4 * lobe * u), 512);
-  const zc = fl.metrics.peakPositionSamples * u;
+  const zc = Math.round(fl.metrics.peakPositionSamples * u);
+  const zoomFrom = Math.max(0, zc - zoomHalf);
+  const zoomTo = Math.min(span, zc + zoomHalf + 1);
+  const zoomF = new Float64Array(zoomTo - zoomFrom);
+  const zoomQ = new Float64Array(zoomTo - zoomFrom);
+  for (let j = zoomFrom; j < zoomTo; j++) {
+    zoomF[j - zoomFrom] = fl.fine.at(j);
+    zoomQ[j - zoomFrom] = fx.fine.at(j);
+  }
   const plots: Record<string, PlotTrace> = {
-    compressed: envelope(fl.power, fx.power, 0, span, PLOT_POINTS, xOf, dbOf),
+    compressed: envelope(fl.grid.p, fx.grid.p, 0, span2, PLOT_POINTS, (i) => i / 2 - (n - 1), dbOf),
     mainlobe: envelope(
-      fl.power,
-      fx.power,
-      Math.max(0, zc - zoomHalf),
-      Math.min(span, zc + zoomHalf + 1),
+      zoomF,
+      zoomQ,
+      0,
+      zoomF.length,
       4 * zoomHalf + 4,
-      xOf,
+      (i) => xOf(i + zoomFrom),
       dbOf,
     ),
     spectrum: spectrumTrace(sSpec, sqSpec, fs),
@@ -475,14 +479,14 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
     progress(0.7, "sweep");
     const swept = spec.sweep.tables ?? ["rx"];
     const ctx = prepareSweep({
-      floatFine: fl.y!,
-      floatPower: fl.power,
+      floatGrid: fl.fine,
       floatMetrics: fl.metrics,
       size,
       interpolation: u,
       sampleRateHz: fs,
       expectedIndex,
-      workspace: { power: new Float64Array(size * u), ...workspace },
+      // The fixed output's ×2 grid has been used (plots made): the full recomputations may overwrite it.
+      workspace: { ...workspace, grid: fx.grid },
     });
     const fixedTxSpec = swept.includes("tx") ? null : sqSpec;
     let txReport: TableReport | undefined;
