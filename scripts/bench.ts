@@ -226,7 +226,10 @@ function writeSection(name: string, body: string) {
   const block = `${start}\n\n${body}\n\n${end}`;
   const i = doc.indexOf(start);
   const j = doc.indexOf(end);
-  writeFileSync(docUrl, i >= 0 && j > i ? doc.slice(0, i) + block + doc.slice(j + end.length) : `${doc}\n${block}\n`);
+  writeFileSync(
+    docUrl,
+    i >= 0 && j > i ? doc.slice(0, i) + block + doc.slice(j + end.length) : `${doc}\n${block}\n`,
+  );
 }
 
 // Flags: one mode per run. Other modes (`--load`, `--sizes`) hook in here beside `--vs-numpy`.
@@ -244,7 +247,10 @@ if (process.argv.includes("--vs-numpy")) {
     /* new file */
   }
   const prev = /<!-- vs-numpy:start -->([\s\S]*?)<!-- vs-numpy:end -->/.exec(doc)?.[1] ?? "";
-  const runs = prev.split("<!-- vs-numpy:run -->").map((x) => x.trim()).filter((x) => x.startsWith("Run "));
+  const runs = prev
+    .split("<!-- vs-numpy:run -->")
+    .map((x) => x.trim())
+    .filter((x) => x.startsWith("Run "));
   const stamp = new Date().toISOString().slice(0, 16).replace("T", " ");
   runs.unshift(`Run ${stamp} UTC: ${machine}.\n\n${body}`);
   writeSection(

@@ -20,16 +20,12 @@ import {
   spectrumOf,
 } from "./compression";
 import { applyDoppler, dopplerCut, type DopplerCut } from "./doppler";
+import { fftInterleaved } from "./fft";
 import { designFir } from "./fir-design";
 import { firMagnitude, firMetrics, type Band, type FirMetrics } from "./fir-response";
 import { linearFm } from "./lfm";
 import { matchedFilter } from "./matched-filter";
-import {
-  coefficientSqnrDb,
-  mismatchLossDb,
-  peakLossDb,
-  type ResponseMetrics,
-} from "./metrics";
+import { coefficientSqnrDb, mismatchLossDb, peakLossDb, type ResponseMetrics } from "./metrics";
 import { nonlinearFm } from "./nlfm";
 import { phaseCode } from "./phase-codes";
 import { quantize } from "./quantize";
@@ -438,15 +434,7 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
   }
   const plots: Record<string, PlotTrace> = {
     compressed: envelope(fl.grid.p, fx.grid.p, 0, span2, PLOT_POINTS, (i) => i / 2 - (n - 1), dbOf),
-    mainlobe: envelope(
-      zoomF,
-      zoomQ,
-      0,
-      zoomF.length,
-      4 * zoomHalf + 4,
-      (i) => xOf(i + zoomFrom),
-      dbOf,
-    ),
+    mainlobe: envelope(zoomF, zoomQ, 0, zoomF.length, 4 * zoomHalf + 4, (i) => xOf(i + zoomFrom), dbOf),
     spectrum: spectrumTrace(sSpec, sqSpec, fs),
   };
   const coefficientErrorLsb = { tx: lsbTrace(s, qs), rx: lsbTrace(h, qh) };
@@ -490,14 +478,29 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
     });
     const fixedTxSpec = swept.includes("tx") ? null : sqSpec;
     let txReport: TableReport | undefined;
+    // Per-W buffers, reused by every W (the rows keep numbers only).
+    const rxBufs = {
+      re: new Float64Array(n),
+      im: new Float64Array(n),
+      valueRe: new Float64Array(n),
+      valueIm: new Float64Array(n),
+    };
+    const hwSig = { re: new Float64Array(n), im: new Float64Array(n) };
+    const padded = new Float64Array(2 * size);
+    const hwSpec = new Float64Array(2 * size);
     const evaluate = (w: number, full: boolean) => {
       const txSpec = sweepSpec(spec.fixedPoint.tx, w);
       const rxSpec = sweepSpec(spec.fixedPoint.rx, w);
       const qsw = fixedTxSpec ? qs : quantize(s, txSpec);
-      const qhw = swept.includes("rx") ? quantize(h, rxSpec) : qh;
+      const qhw = swept.includes("rx") ? quantize(h, rxSpec, rxBufs) : qh;
       const sw = fixedTxSpec ? sq : fixedValues(qsw);
-      const hw = fixedValues(qhw);
-      const prod = multiplySpectra(fixedTxSpec ?? spectrumOf(sw, size), spectrumOf(hw, size));
+      const hw = hwSig;
+      for (let i = 0; i < n; i++) {
+        padded[2 * i] = hw.re[i] = qhw.valueRe[i]! / qhw.gain;
+        padded[2 * i + 1] = hw.im[i] = qhw.valueIm[i]! / qhw.gain;
+      }
+      fftInterleaved(padded, false, hwSpec);
+      const prod = multiplySpectra(fixedTxSpec ?? spectrumOf(sw, size), hwSpec, hwSpec);
       const m = full ? fullResponse(ctx, prod) : refinedResponse(ctx, prod);
       const fig = flat(
         compressionFigures(m, mismatchLossDb(sw, hw), peakLossDb(fl.metrics.peakAmplitude, m.peakAmplitude)),

@@ -17,7 +17,13 @@
  * half power is found by bisection on the band-limited output itself, not by a straight line.
  */
 import { interpolatedEnergy, interpolateInto, type InterpolationWorkspace } from "./compression";
-import { findMainlobe, measureResponse, SPEED_OF_LIGHT, type MeasureOptions, type ResponseMetrics } from "./metrics";
+import {
+  findMainlobe,
+  measureResponse,
+  SPEED_OF_LIGHT,
+  type MeasureOptions,
+  type ResponseMetrics,
+} from "./metrics";
 import { besselI0 } from "./windows";
 
 /** Half-length of the ×2-grid interpolation kernel, in ×2 samples. */
@@ -193,7 +199,12 @@ function widthOf(
 
 function withWidth(m: ResponseMetrics, w: number, fs: number): ResponseMetrics {
   const seconds = w / fs;
-  return { ...m, width3dbSamples: w, width3dbSeconds: seconds, width3dbMetres: (seconds * SPEED_OF_LIGHT) / 2 };
+  return {
+    ...m,
+    width3dbSamples: w,
+    width3dbSeconds: seconds,
+    width3dbMetres: (seconds * SPEED_OF_LIGHT) / 2,
+  };
 }
 
 /** Result of `measureRefined`: the figures, the ×2 grid and a reader of the ×U grid. */

@@ -93,21 +93,27 @@ function topLocalMaxima(p: Float64Array, lo: number, hi: number, count: number):
   const bi: number[] = [];
   const bv: number[] = [];
   let minV = Infinity;
+  let minAt = -1;
   const length = p.length;
+  const rescan = () => {
+    minAt = 0;
+    for (let s = 1; s < bv.length; s++) if (bv[s]! < bv[minAt]!) minAt = s;
+    minV = bv[minAt]!;
+  };
   for (let i = 1; i + 1 < length; i++) {
-    if (i >= lo && i <= hi) continue;
     const v = p[i]!;
+    if (!(v > minV) && bi.length === count) continue;
+    if (i >= lo && i <= hi) continue;
     if (v < p[i - 1]! || v < p[i + 1]! || v === 0) continue;
     if (bi.length < count) {
       bi.push(i);
       bv.push(v);
-      if (bi.length === count) minV = Math.min(...bv);
+      if (bi.length === count) rescan();
       continue;
     }
-    if (!(v > minV)) continue;
-    bi[bv.indexOf(minV)] = i;
-    bv[bv.indexOf(minV)] = v;
-    minV = Math.min(...bv);
+    bi[minAt] = i;
+    bv[minAt] = v;
+    rescan();
   }
   return bi;
 }
@@ -198,11 +204,19 @@ export function refinedResponse(ctx: SweepContext, spectrum: Float64Array): Resp
       const ker = ctx.kernels[r]!;
       dr = 0;
       di = 0;
-      for (let t = -k + 1; t <= k; t++) {
-        const n = (((n0 + t) % m) + m) % m;
-        const c = ker[t + k - 1]!;
-        dr += c * delta[2 * n]!;
-        di += c * delta[2 * n + 1]!;
+      if (n0 - k + 1 >= 0 && n0 + k < m) {
+        for (let t = 0, i = 2 * (n0 - k + 1); t < 2 * k; t++, i += 2) {
+          const c = ker[t]!;
+          dr += c * delta[i]!;
+          di += c * delta[i + 1]!;
+        }
+      } else {
+        for (let t = -k + 1; t <= k; t++) {
+          const n = (((n0 + t) % m) + m) % m;
+          const c = ker[t + k - 1]!;
+          dr += c * delta[2 * n]!;
+          di += c * delta[2 * n + 1]!;
+        }
       }
     }
     floatAt(j);
