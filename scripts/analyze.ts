@@ -1,6 +1,8 @@
 /**
  * Command line: `npm run --silent analyze -- spec.json` (or `-` for stdin) prints the analysis JSON.
  * A spec that fails validation exits 2 with one line per problem, naming the field by its path.
+ * The report's design warnings (window edge spikes, overflowed coefficients, …) are also printed to
+ * stderr, one `warning: …` line each.
  */
 import { readFileSync } from "node:fs";
 import { ZodError } from "zod";
@@ -20,7 +22,10 @@ function main(argv: string[]): number {
     return 2;
   }
   try {
-    process.stdout.write(`${JSON.stringify(analyze(spec), null, 2)}\n`);
+    const report = analyze(spec);
+    process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
+    // Design cautions go to stderr too, so a script that keeps only the JSON still shows them.
+    for (const w of report.warnings ?? []) process.stderr.write(`warning: ${w}\n`);
     return 0;
   } catch (e) {
     if (e instanceof ZodError) {

@@ -20,20 +20,17 @@ import {
   spectrumOf,
 } from "./compression";
 import { applyDoppler, dopplerCut, type DopplerCut } from "./doppler";
+import { fftInterleaved } from "./fft";
 import { designFir } from "./fir-design";
 import { firMagnitude, firMetrics, type Band, type FirMetrics } from "./fir-response";
 import { linearFm } from "./lfm";
 import { matchedFilter } from "./matched-filter";
-import {
-  coefficientSqnrDb,
-  measureInterpolated,
-  mismatchLossDb,
-  peakLossDb,
-  type ResponseMetrics,
-} from "./metrics";
+import { coefficientSqnrDb, mismatchLossDb, peakLossDb, type ResponseMetrics } from "./metrics";
 import { nonlinearFm } from "./nlfm";
 import { phaseCode } from "./phase-codes";
 import { quantize } from "./quantize";
+import { windowWarnings } from "./windows";
+import { measureRefined } from "./refine";
 import { confirmSmallest, fullResponse, prepareSweep, refinedResponse, type SweepRow } from "./sweep";
 import type { AcceptanceLimits, ComplexSignal, FixedPointSpec, QuantizedTable } from "./types";
 
@@ -111,10 +108,25 @@ export interface AnalysisReport {
   /** Filters: the bands the limits are judged over (Hz), for drawing the masks. */
   firBands?: { passbands: Band[]; stopbands: Band[] };
   definitions: Record<string, string>;
+  /** Waveforms: what the compression figures are measured on, with the U and mainlobe rule used. */
+  measurement?: {
+    /** "complex output", or "envelope" (analytic signal) for a real waveform at an IF. */
+    signal: "complex output" | "envelope";
+    interpolation: number;
+    /** True when U was not given and the default for the waveform's kind was used. */
+    interpolationDefaulted: boolean;
+    mainlobe: string;
+  };
+  /** Design cautions (window edge spikes, saturated coefficients, …), also printed by the CLI. */
+  warnings?: string[];
 }
 
 const DEFINITIONS = {
   mainlobe: "from the peak out to the first local minimum on each side, on the ×U grid",
+  envelope:
+    "real waveforms at an IF: every compression figure is measured on the envelope |y + j·H{y}| (analytic signal), not on the carrier",
+  width3db:
+    "−3 dB width: the two half-power crossings of the band-limited output nearest the peak (bisection between the ×U points that straddle them)",
   pslDb: "20·log10(max sidelobe |y| / peak |y|)",
   islrDb: "10·log10(Σ sidelobe |y|² / Σ mainlobe |y|²) over the ×U grid",
   mismatchLossDb: "−10·log10(|y0|²/(Σ|h|²·Σ|s|²)), y0 = Σ h[n]·s[N−1−n]",
@@ -382,37 +394,89 @@ function compressionFigures(m: ResponseMetrics, mismatch: number, peakLoss?: num
     : { ...m, mismatchLossDb: mismatch, peakLossDb: peakLoss };
 }
 
+/** Default U when the spec gives none: 1 for phase codes (their tables' sample-grid figures), else 8. */
+export function defaultInterpolation(tx: WaveformSource): number {
+  return tx.kind === "phase-code" ? 1 : 8;
+}
+
+/**
+ * Smallest transform when U > 1: the ×U output is the band-limited interpolation of the periodic
+ * (period M) output, so a short sequence's tail folds back onto it unless M is long enough. 8,192
+ * puts Barker-13's PSL and ISLR within 0.003 dB of M → ∞ (tests/unit/dsp/numbers.test.ts).
+ */
+export const MIN_INTERPOLATED_SIZE = 8192;
+
+/** Refuses an unsigned format for a table with negative components (they would all overflow). */
+function checkSignedness(role: string, table: ComplexSignal, fp: FixedPointSpec): void {
+  if (fp.signed) return;
+  let negative = 0;
+  for (let i = 0; i < table.re.length; i++) {
+    if (table.re[i]! < 0) negative++;
+    if (table.im[i]! < 0) negative++;
+  }
+  if (negative > 0)
+    throw new RangeError(
+      `fixedPoint.${role}.signed: false, but the ${role} table has ${negative} negative components of ${2 * table.re.length}; an unsigned word cannot hold them — use signed: true (two's complement)`,
+    );
+}
+
+/** Keeps the positive frequencies ×2 (DC and Nyquist once): the spectrum of the analytic signal, in place. */
+function analyticInPlace(spectrum: Float64Array): Float64Array {
+  const m = spectrum.length / 2;
+  for (let k = 1; k < m / 2; k++) {
+    spectrum[2 * k] = 2 * spectrum[2 * k]!;
+    spectrum[2 * k + 1] = 2 * spectrum[2 * k + 1]!;
+  }
+  spectrum.fill(0, m + 2);
+  return spectrum;
+}
+
+function saturationWarning(role: string, q: QuantizedTable): string[] {
+  if (q.overflowCount === 0) return [];
+  const how = q.spec.overflow === "saturate" ? "saturated" : "wrapped";
+  return [
+    `${role}: ${q.overflowCount} components overflowed the ${q.spec.wordLength}-bit word and were ${how}`,
+  ];
+}
+
 function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): AnalysisReport {
   const fs = spec.tx.sampleRateHz;
-  const u = spec.interpolation;
+  const u = spec.interpolation ?? defaultInterpolation(spec.tx);
   const s = generateWaveform(spec.tx);
-  const h = matchedFilter(s, spec.rx.window);
   const n = s.re.length;
+  if (n < 2)
+    throw new RangeError(
+      `tx: the waveform has ${n} sample; at least 2 are needed (a one-sample pulse has no sidelobes to measure)`,
+    );
+  const h = matchedFilter(s, spec.rx.window);
+  checkSignedness("tx", s, spec.fixedPoint.tx);
+  checkSignedness("rx", h, spec.fixedPoint.rx);
+  const envelopeOf = spec.tx.kind === "lfm" && spec.tx.output === "real";
+  const asMeasured = envelopeOf ? analyticInPlace : (x: Float64Array) => x;
   progress(0.05, "quantize");
   const qs = quantize(s, spec.fixedPoint.tx);
   const qh = quantize(h, spec.fixedPoint.rx);
   const sq = fixedValues(qs);
   const hq = fixedValues(qh);
-  const size = convolutionSize(n);
+  const size = Math.max(convolutionSize(n), u > 1 ? MIN_INTERPOLATED_SIZE : 0);
+  const warnings = [
+    ...windowWarnings(spec.rx.window, n),
+    ...saturationWarning("tx", qs),
+    ...saturationWarning("rx", qh),
+  ];
   const sSpec = spectrumOf(s, size);
   const sqSpec = spectrumOf(sq, size);
   const expectedIndex = (n - 1) * u;
   const measureOpts = { interpolation: u, sampleRateHz: fs, expectedIndex };
-  // One interpolation scratch for every ×U output of this analysis; the complex float output is kept
-  // only for the sweep, the fixed one never (its |y|² is all the figures and plots need).
+  // One interpolation scratch for every output of this analysis; each output keeps its own ×2 grid
+  // (the plots and the sweep read the ×U points from it, shared/dsp/refine.ts).
   const workspace = { interpolation: interpolationWorkspace(size) };
   progress(0.1, "float");
   const hSpec = spectrumOf(h, size);
-  const fl = measureInterpolated(multiplySpectra(sSpec, hSpec, hSpec), measureOpts, {
-    complex: spec.sweep !== undefined,
-    workspace,
-  });
+  const fl = measureRefined(asMeasured(multiplySpectra(sSpec, hSpec, hSpec)), measureOpts, workspace);
   progress(0.35, "fixed");
   const hqSpec = spectrumOf(hq, size);
-  const fx = measureInterpolated(multiplySpectra(sqSpec, hqSpec, hqSpec), measureOpts, {
-    complex: false,
-    workspace,
-  });
+  const fx = measureRefined(asMeasured(multiplySpectra(sqSpec, hqSpec, hqSpec)), measureOpts, workspace);
   const floatFig = compressionFigures(fl.metrics, mismatchLossDb(s, h));
   const fixedFig = compressionFigures(
     fx.metrics,
@@ -424,26 +488,32 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
   const fixedFlat = flat(fixedFig);
   const limits = checkLimits(spec.limits, fixedFlat, worstOf(tables));
 
-  // Plots: whole output (up to the end of the linear convolution) and the mainlobe at full resolution.
-  const ref = fl.power[fl.metrics.peakPositionSamples * u]!;
+  // Plots: whole output (up to the end of the linear convolution) on the ×2 grid, and the mainlobe at
+  // the full ×U resolution (read from the ×2 grids by band-limited interpolation).
+  const ref = fl.metrics.peakAmplitude ** 2;
   const dbOf = (p: number) => toDb(p, ref);
   const xOf = (i: number) => (i - expectedIndex) / u;
-  const span = Math.min((2 * n - 1) * u, fl.power.length);
+  const span = Math.min((2 * n - 1) * u, size * u);
+  const span2 = Math.min(2 * (2 * n - 1), 2 * size);
   const lobe = Math.max(-fl.metrics.mainlobeSamples.left, fl.metrics.mainlobeSamples.right, 1);
   const zoomHalf = Math.min(Math.ceil(4 * lobe * u), 512);
-  const zc = fl.metrics.peakPositionSamples * u;
+  const zc = Math.round(fl.metrics.peakPositionSamples * u);
+  const zoomFrom = Math.max(0, zc - zoomHalf);
+  const zoomTo = Math.min(span, zc + zoomHalf + 1);
+  const zoomF = new Float64Array(zoomTo - zoomFrom);
+  const zoomQ = new Float64Array(zoomTo - zoomFrom);
+  for (let j = zoomFrom; j < zoomTo; j++) {
+    zoomF[j - zoomFrom] = fl.fine.at(j);
+    zoomQ[j - zoomFrom] = fx.fine.at(j);
+  }
   const plots: Record<string, PlotTrace> = {
-    compressed: envelope(fl.power, fx.power, 0, span, PLOT_POINTS, xOf, dbOf),
-    mainlobe: envelope(
-      fl.power,
-      fx.power,
-      Math.max(0, zc - zoomHalf),
-      Math.min(span, zc + zoomHalf + 1),
-      4 * zoomHalf + 4,
-      xOf,
-      dbOf,
-    ),
-    spectrum: spectrumTrace(sSpec, sqSpec, fs),
+    compressed: envelope(fl.grid.p, fx.grid.p, 0, span2, PLOT_POINTS, (i) => i / 2 - (n - 1), dbOf),
+    mainlobe: envelope(zoomF, zoomQ, 0, zoomF.length, 4 * zoomHalf + 4, (i) => xOf(i + zoomFrom), dbOf),
+    // The transmit spectrum at the convolution size (the guard of short sequences adds no information).
+    spectrum:
+      size === convolutionSize(n)
+        ? spectrumTrace(sSpec, sqSpec, fs)
+        : spectrumTrace(spectrumOf(s, convolutionSize(n)), spectrumOf(sq, convolutionSize(n)), fs),
   };
   const coefficientErrorLsb = { tx: lsbTrace(s, qs), rx: lsbTrace(h, qh) };
 
@@ -475,25 +545,40 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
     progress(0.7, "sweep");
     const swept = spec.sweep.tables ?? ["rx"];
     const ctx = prepareSweep({
-      floatFine: fl.y!,
-      floatPower: fl.power,
+      floatGrid: fl.fine,
       floatMetrics: fl.metrics,
       size,
       interpolation: u,
       sampleRateHz: fs,
       expectedIndex,
-      workspace: { power: new Float64Array(size * u), ...workspace },
+      // The fixed output's ×2 grid has been used (plots made): the full recomputations may overwrite it.
+      workspace: { ...workspace, grid: fx.grid },
     });
     const fixedTxSpec = swept.includes("tx") ? null : sqSpec;
     let txReport: TableReport | undefined;
+    // Per-W buffers, reused by every W (the rows keep numbers only).
+    const rxBufs = {
+      re: new Float64Array(n),
+      im: new Float64Array(n),
+      valueRe: new Float64Array(n),
+      valueIm: new Float64Array(n),
+    };
+    const hwSig = { re: new Float64Array(n), im: new Float64Array(n) };
+    const padded = new Float64Array(2 * size);
+    const hwSpec = new Float64Array(2 * size);
     const evaluate = (w: number, full: boolean) => {
       const txSpec = sweepSpec(spec.fixedPoint.tx, w);
       const rxSpec = sweepSpec(spec.fixedPoint.rx, w);
       const qsw = fixedTxSpec ? qs : quantize(s, txSpec);
-      const qhw = swept.includes("rx") ? quantize(h, rxSpec) : qh;
+      const qhw = swept.includes("rx") ? quantize(h, rxSpec, rxBufs) : qh;
       const sw = fixedTxSpec ? sq : fixedValues(qsw);
-      const hw = fixedValues(qhw);
-      const prod = multiplySpectra(fixedTxSpec ?? spectrumOf(sw, size), spectrumOf(hw, size));
+      const hw = hwSig;
+      for (let i = 0; i < n; i++) {
+        padded[2 * i] = hw.re[i] = qhw.valueRe[i]! / qhw.gain;
+        padded[2 * i + 1] = hw.im[i] = qhw.valueIm[i]! / qhw.gain;
+      }
+      fftInterleaved(padded, false, hwSpec);
+      const prod = asMeasured(multiplySpectra(fixedTxSpec ?? spectrumOf(sw, size), hwSpec, hwSpec));
       const m = full ? fullResponse(ctx, prod) : refinedResponse(ctx, prod);
       const fig = flat(
         compressionFigures(m, mismatchLossDb(sw, hw), peakLossDb(fl.metrics.peakAmplitude, m.peakAmplitude)),
@@ -534,6 +619,13 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
     plots,
     coefficientErrorLsb,
     definitions: DEFINITIONS,
+    measurement: {
+      signal: envelopeOf ? "envelope" : "complex output",
+      interpolation: u,
+      interpolationDefaulted: spec.interpolation === undefined,
+      mainlobe: `from the peak to the first local minimum on each side, on the ×${u} grid${u === 1 ? " (the samples themselves)" : ""}`,
+    },
+    warnings,
   };
 }
 
@@ -543,8 +635,13 @@ function analyzeFilter(spec: FilterSpec, progress: ProgressCallback): AnalysisRe
   const bands = { sampleRateHz: fs, passbands, stopbands };
   const points = spec.responsePoints;
   progress(0.1, "quantize");
+  checkSignedness("fir", taps, spec.fixedPoint.fir);
   const q = quantize(taps, spec.fixedPoint.fir);
   const hq = fixedValues(q);
+  const warnings = [
+    ...(spec.fir.kind === "design" && spec.fir.window ? windowWarnings(spec.fir.window, taps.re.length) : []),
+    ...saturationWarning("fir", q),
+  ];
   const figures = (h: ComplexSignal): FirMetrics => firMetrics(h, bands, points);
   const floatFlat = flat(figures(taps));
   const fixedFlat = flat(figures(hq));
@@ -605,5 +702,6 @@ function analyzeFilter(spec: FilterSpec, progress: ProgressCallback): AnalysisRe
     coefficientErrorLsb: { fir: lsbTrace(taps, q) },
     firBands: { passbands, stopbands },
     definitions: DEFINITIONS,
+    warnings,
   };
 }

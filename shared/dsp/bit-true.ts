@@ -67,10 +67,12 @@ export function shiftRoundBigInt(acc: bigint, shift: number, mode: RoundingMode)
   const q = acc >> s;
   const r = acc - (q << s); // 0 ≤ r < 2^shift
   if (r === 0n || mode === "floor") return q;
+  if (mode === "ceiling") return q + 1n;
   if (mode === "toward-zero") return acc < 0n ? q + 1n : q;
   const half = 1n << (s - 1n);
   if (r > half) return q + 1n;
   if (r < half) return q;
+  if (mode === "nearest-up") return q + 1n; // (acc + 2^(shift−1)) >> shift
   if (mode === "nearest-away") return acc > 0n ? q + 1n : q;
   return (q & 1n) === 0n ? q : q + 1n; // nearest-even
 }

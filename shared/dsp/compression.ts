@@ -70,6 +70,34 @@ function rootTable(n: number): RootTable {
   return t;
 }
 
+const halfTables = new Map<number, Float64Array>();
+/** e^{j2π·κ(k)/(2M)} for k = 0..M−1 (κ the signed frequency), interleaved; the Nyquist entry is cos(π/2) = 0 + 0j·… as `interpolateInto` splits it. */
+function halfSampleTwiddles(m: number): Float64Array {
+  let t = halfTables.get(m);
+  if (!t) {
+    const roots = rootTable(2 * m);
+    const { l, hi, lo } = roots;
+    t = new Float64Array(2 * m);
+    const half = m / 2;
+    for (let k = 0; k < m; k++) {
+      if (k === half) {
+        t[2 * k] = Math.cos(Math.PI / 2);
+        t[2 * k + 1] = 0;
+        continue;
+      }
+      let q = k < half ? k : k - m;
+      if (q < 0) q += 2 * m;
+      const a = 2 * Math.floor(q / l);
+      const b = 2 * (q - (a / 2) * l);
+      t[2 * k] = hi[a]! * lo[b]! - hi[a + 1]! * lo[b + 1]!;
+      t[2 * k + 1] = hi[a]! * lo[b + 1]! + hi[a + 1]! * lo[b]!;
+    }
+    if (halfTables.size > 8) halfTables.clear();
+    halfTables.set(m, t);
+  }
+  return t;
+}
+
 /** Scratch for `interpolateInto`: two interleaved buffers of M points (reusable across calls of the same M). */
 export interface InterpolationWorkspace {
   phase: Float64Array;
@@ -107,11 +135,24 @@ export function interpolateInto(
   const ws = workspace ?? interpolationWorkspace(m);
   if (ws.phase.length !== spectrum.length || ws.out.length !== spectrum.length)
     throw new RangeError("workspace does not match the spectrum length");
-  const roots = u > 1 ? rootTable(big) : null;
+  const roots = u > 2 ? rootTable(big) : null;
   const half = m / 2;
   for (let r = 0; r < u; r++) {
     let src = spectrum;
-    if (r > 0) {
+    if (r > 0 && u === 2) {
+      // The ×2 case (the analysis's grid): one cached table of e^{jπ·κ(k)/M}, Nyquist bin cos(π/2) = 0.
+      const tw = halfSampleTwiddles(m);
+      const ph = ws.phase;
+      for (let i = 0; i < 2 * m; i += 2) {
+        const wr = tw[i]!;
+        const wi = tw[i + 1]!;
+        const xr = spectrum[i]!;
+        const xi = spectrum[i + 1]!;
+        ph[i] = xr * wr - xi * wi;
+        ph[i + 1] = xr * wi + xi * wr;
+      }
+      src = ph;
+    } else if (r > 0) {
       const { l, hi, lo } = roots!;
       const ph = ws.phase;
       for (let k = 0; k < m; k++) {

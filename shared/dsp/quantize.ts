@@ -12,7 +12,14 @@ import type { ComplexSignal, FixedPointSpec, OverflowMode, QuantizedTable, Round
 export const WORD_LENGTH_RANGE = { min: 2, max: 32 } as const;
 export const FRACTION_LENGTH_RANGE = { min: -64, max: 96 } as const;
 
-const ROUNDING_MODES: readonly RoundingMode[] = ["nearest-away", "nearest-even", "floor", "toward-zero"];
+const ROUNDING_MODES: readonly RoundingMode[] = [
+  "nearest-away",
+  "nearest-even",
+  "nearest-up",
+  "floor",
+  "ceiling",
+  "toward-zero",
+];
 const OVERFLOW_MODES: readonly OverflowMode[] = ["saturate", "wrap"];
 const SCALING_MODES = ["as-given", "normalize", "full-scale"] as const;
 
@@ -68,6 +75,8 @@ export const ROUNDING_CODE: Readonly<Record<RoundingMode, number>> = {
   "toward-zero": 1,
   "nearest-away": 2,
   "nearest-even": 3,
+  "nearest-up": 4,
+  ceiling: 5,
 };
 
 /**
@@ -77,11 +86,13 @@ export const ROUNDING_CODE: Readonly<Record<RoundingMode, number>> = {
 export function roundByCode(u: number, code: number): number {
   if (code === 0) return Math.floor(u);
   if (code === 1) return Math.trunc(u);
+  if (code === 5) return Math.ceil(u);
   const f = Math.floor(u);
   const d = u - f;
   if (d > 0.5) return f + 1;
   if (d < 0.5) return f;
   if (code === 2) return u > 0 ? f + 1 : f; // tie: away from zero
+  if (code === 4) return f + 1; // tie: up (floor(u + 1/2), computed without the rounding of u + 0.5)
   return f % 2 === 0 ? f : f + 1; // tie: to even
 }
 
@@ -138,6 +149,13 @@ export function peakComponent(signal: ComplexSignal): number {
   return m;
 }
 
+/**
+ * Values closer than SNAP_ULPS·ε·peak to a lattice point (in input units) are snapped onto it before
+ * rounding: the round-off of computing the table (cos(π/2) = 6.1e-17 for 0) must not move a code
+ * under floor, ceiling or toward-zero. For the nearest modes snapping never changes the code.
+ */
+export const SNAP_ULPS = 4;
+
 /** Optional output buffers (each the signal's length) so a bit-width sweep can reuse memory. */
 export interface QuantizeBuffers {
   re?: Float64Array;
@@ -164,6 +182,7 @@ function quantizeComponent(
   spec: FixedPointSpec,
   scale: number,
   fullScalePeak: number,
+  snap: number,
 ): number {
   const { min, max } = integerRange(spec.wordLength, spec.signed);
   const step = 2 ** -spec.fractionLength;
@@ -176,7 +195,10 @@ function quantizeComponent(
     const u = xi === fullScalePeak ? max : xi === -fullScalePeak ? -max : xi * scale;
     if (!Number.isFinite(u))
       throw new RangeError(`signal[${i}] × 2^${spec.fractionLength} is outside the float64 range`);
-    let c = roundByCode(u, rounding);
+    // A value within a few ulps (of the table's peak) of a lattice point is that point: cos(π/2) =
+    // 6.1e-17 is 0, and floor must not turn it into code −1.
+    const near = Math.round(u);
+    let c = Math.abs(u - near) <= snap ? near : roundByCode(u, rounding);
     if (c > max || c < min) {
       overflows++;
       c = overflow === "saturate" ? (c > max ? max : min) : wrapInteger(c, wordLength, signed);
@@ -204,8 +226,9 @@ export function quantize(signal: ComplexSignal, spec: FixedPointSpec, out?: Quan
   const gain = scalingGain(peak, spec);
   const fullScalePeak = spec.scaling === "full-scale" && peak > 0 ? peak : NaN; // NaN equals nothing: no snapping
   const scale = gain * 2 ** spec.fractionLength;
+  const snap = SNAP_ULPS * Number.EPSILON * peak * scale;
   const overflowCount =
-    quantizeComponent(signal.re, re, valueRe, spec, scale, fullScalePeak) +
-    quantizeComponent(signal.im, im, valueIm, spec, scale, fullScalePeak);
+    quantizeComponent(signal.re, re, valueRe, spec, scale, fullScalePeak, snap) +
+    quantizeComponent(signal.im, im, valueIm, spec, scale, fullScalePeak, snap);
   return { re, im, valueRe, valueIm, gain, overflowCount, spec: { ...spec } };
 }

@@ -24,6 +24,7 @@ import {
   type MeasureWorkspace,
   type ResponseMetrics,
 } from "./metrics";
+import { bandLimitedCrossing, measureRefined, type FineGrid, type RefineWorkspace } from "./refine";
 import { besselI0 } from "./windows";
 
 /** Half-length of the local interpolation kernel of Δ, in coarse samples. */
@@ -32,6 +33,14 @@ export const KERNEL_HALF = 24;
 export const PSL_CANDIDATES = 24;
 const KAISER_BETA = 8; // common practice for windowed-sinc interpolators (≈ −80 dB kernel sidelobes)
 
+/** The Δ kernel at distance x (coarse samples) from a coarse point: sinc·Kaiser over ±(K+1). */
+function deltaKernelAt(x: number, i0b: number): number {
+  const sinc = x === 0 ? 1 : Math.sin(Math.PI * x) / (Math.PI * x);
+  const z = x / (KERNEL_HALF + 1);
+  const w = Math.abs(z) >= 1 ? 0 : besselI0(KAISER_BETA * Math.sqrt(1 - z * z)) / i0b;
+  return sinc * w;
+}
+
 /** Kernels k_r[t] = sinc(t − r/U)·kaiser, t = −K+1..K, for each fractional offset r = 1..U−1. */
 function interpolationKernels(u: number): Float64Array[] {
   const kernels: Float64Array[] = [];
@@ -39,13 +48,8 @@ function interpolationKernels(u: number): Float64Array[] {
   const i0b = besselI0(KAISER_BETA);
   for (let r = 0; r < u; r++) {
     const ker = new Float64Array(2 * k);
-    for (let t = -k + 1; t <= k; t++) {
-      const x = r / u - t; // distance from coarse sample n0+t to the fine point n0 + r/U
-      const sinc = x === 0 ? 1 : Math.sin(Math.PI * x) / (Math.PI * x);
-      const z = x / (k + 1);
-      const w = Math.abs(z) >= 1 ? 0 : besselI0(KAISER_BETA * Math.sqrt(1 - z * z)) / i0b;
-      ker[t + k - 1] = sinc * w;
-    }
+    // distance from coarse sample n0+t to the fine point n0 + r/U
+    for (let t = -k + 1; t <= k; t++) ker[t + k - 1] = deltaKernelAt(r / u - t, i0b);
     kernels.push(ker);
   }
   return kernels;
@@ -53,8 +57,10 @@ function interpolationKernels(u: number): Float64Array[] {
 
 /** What the sweep reuses from the float analysis. */
 export interface SweepReference {
-  /** Float output on the ×U grid, interleaved (M·U points). */
-  floatFine: Float64Array;
+  /** Float output on the ×U grid, interleaved (M·U points); or `floatGrid`, its reader from the ×2 grid. */
+  floatFine?: Float64Array;
+  /** The float output's ×U points read from its ×2 grid (shared/dsp/refine.ts); used when floatFine is absent. */
+  floatGrid?: FineGrid;
   floatMetrics: ResponseMetrics;
   /** Transform size M and interpolation U. */
   size: number;
@@ -65,7 +71,7 @@ export interface SweepReference {
   /** |floatFine|² when already computed (saves a pass and a buffer). */
   floatPower?: Float64Array;
   /** Buffers the full recomputations may overwrite (e.g. the fixed output's, once it has been used). */
-  workspace?: MeasureWorkspace;
+  workspace?: MeasureWorkspace & RefineWorkspace;
 }
 
 /** Precomputed per reference: kernels, the coarse float output and the float PSL candidates. */
@@ -73,6 +79,10 @@ export interface SweepContext extends SweepReference {
   kernels: Float64Array[];
   floatCoarse: Float64Array;
   floatCandidates: number[];
+  /** Float value at fine index j (any integer, periodic): writes re/im into `floatAt.re/im`. */
+  floatAt: ((j: number) => void) & { re: number; im: number };
+  /** Per-W scratch (coarse output, Δ, its power), reused by every `refinedResponse` call. */
+  scratch: { coarse: Float64Array; delta: Float64Array; power: Float64Array };
 }
 
 /**
@@ -83,21 +93,27 @@ function topLocalMaxima(p: Float64Array, lo: number, hi: number, count: number):
   const bi: number[] = [];
   const bv: number[] = [];
   let minV = Infinity;
+  let minAt = -1;
   const length = p.length;
+  const rescan = () => {
+    minAt = 0;
+    for (let s = 1; s < bv.length; s++) if (bv[s]! < bv[minAt]!) minAt = s;
+    minV = bv[minAt]!;
+  };
   for (let i = 1; i + 1 < length; i++) {
-    if (i >= lo && i <= hi) continue;
     const v = p[i]!;
+    if (!(v > minV) && bi.length === count) continue;
+    if (i >= lo && i <= hi) continue;
     if (v < p[i - 1]! || v < p[i + 1]! || v === 0) continue;
     if (bi.length < count) {
       bi.push(i);
       bv.push(v);
-      if (bi.length === count) minV = Math.min(...bv);
+      if (bi.length === count) rescan();
       continue;
     }
-    if (!(v > minV)) continue;
-    bi[bv.indexOf(minV)] = i;
-    bv[bv.indexOf(minV)] = v;
-    minV = Math.min(...bv);
+    bi[minAt] = i;
+    bv[minAt] = v;
+    rescan();
   }
   return bi;
 }
@@ -114,17 +130,52 @@ function powerOfInterleaved(z: Float64Array, out?: Float64Array): Float64Array {
 export function prepareSweep(ref: SweepReference): SweepContext {
   const u = ref.interpolation;
   const m = ref.size;
+  const big = m * u;
+  const floatAt = (() => {
+    const ff = ref.floatFine;
+    const fg = ref.floatGrid;
+    const at = (j: number) => {
+      if (ff) {
+        const jj = ((j % big) + big) % big;
+        at.re = ff[2 * jj]!;
+        at.im = ff[2 * jj + 1]!;
+      } else {
+        fg!.at(j);
+        at.re = fg!.re;
+        at.im = fg!.im;
+      }
+    };
+    at.re = 0;
+    at.im = 0;
+    return at;
+  })();
+  if (!ref.floatFine && !ref.floatGrid) throw new RangeError("the sweep needs floatFine or floatGrid");
   const floatCoarse = new Float64Array(2 * m);
   for (let n = 0; n < m; n++) {
-    floatCoarse[2 * n] = ref.floatFine[2 * n * u]!;
-    floatCoarse[2 * n + 1] = ref.floatFine[2 * n * u + 1]!;
+    floatAt(n * u);
+    floatCoarse[2 * n] = floatAt.re;
+    floatCoarse[2 * n + 1] = floatAt.im;
   }
   const peak = ref.floatMetrics.peakPositionSamples * u;
   const lo = peak + ref.floatMetrics.mainlobeSamples.left * u;
   const hi = peak + ref.floatMetrics.mainlobeSamples.right * u;
-  const pf = ref.floatPower ?? powerOfInterleaved(ref.floatFine);
-  const floatCandidates = topLocalMaxima(pf, lo, hi, PSL_CANDIDATES).map((i) => Math.round(i / u));
-  return { ...ref, kernels: interpolationKernels(u), floatCoarse, floatCandidates };
+  let floatCandidates: number[];
+  if (ref.floatFine) {
+    const pf = ref.floatPower ?? powerOfInterleaved(ref.floatFine);
+    floatCandidates = topLocalMaxima(pf, lo, hi, PSL_CANDIDATES).map((i) => Math.round(i / u));
+  } else {
+    // ×2 grid: index n is fine index n·U/2, coarse sample n/2.
+    const p2 = ref.floatGrid!.grid.p;
+    floatCandidates = topLocalMaxima(p2, (2 * lo) / u, (2 * hi) / u, PSL_CANDIDATES).map((n) =>
+      Math.round(n / 2),
+    );
+  }
+  const scratch = {
+    coarse: new Float64Array(2 * m),
+    delta: new Float64Array(2 * m),
+    power: new Float64Array(m),
+  };
+  return { ...ref, kernels: interpolationKernels(u), floatCoarse, floatCandidates, floatAt, scratch };
 }
 
 /**
@@ -134,11 +185,11 @@ export function prepareSweep(ref: SweepReference): SweepContext {
 export function refinedResponse(ctx: SweepContext, spectrum: Float64Array): ResponseMetrics {
   const u = ctx.interpolation;
   const m = ctx.size;
-  const coarse = fftInterleaved(spectrum, true);
-  const delta = new Float64Array(2 * m);
+  const { scratch, floatAt } = ctx;
+  const coarse = fftInterleaved(spectrum, true, scratch.coarse);
+  const delta = scratch.delta;
   for (let i = 0; i < 2 * m; i++) delta[i] = coarse[i]! - ctx.floatCoarse[i]!;
   const k = KERNEL_HALF;
-  const ff = ctx.floatFine;
   // |y_fixed|² at fine index j: float (exact) + Δ (exact at coarse points, locally interpolated between).
   const fineP = (j: number): number => {
     const n0 = Math.floor(j / u);
@@ -153,19 +204,27 @@ export function refinedResponse(ctx: SweepContext, spectrum: Float64Array): Resp
       const ker = ctx.kernels[r]!;
       dr = 0;
       di = 0;
-      for (let t = -k + 1; t <= k; t++) {
-        const n = (((n0 + t) % m) + m) % m;
-        const c = ker[t + k - 1]!;
-        dr += c * delta[2 * n]!;
-        di += c * delta[2 * n + 1]!;
+      if (n0 - k + 1 >= 0 && n0 + k < m) {
+        for (let t = 0, i = 2 * (n0 - k + 1); t < 2 * k; t++, i += 2) {
+          const c = ker[t]!;
+          dr += c * delta[i]!;
+          di += c * delta[i + 1]!;
+        }
+      } else {
+        for (let t = -k + 1; t <= k; t++) {
+          const n = (((n0 + t) % m) + m) % m;
+          const c = ker[t + k - 1]!;
+          dr += c * delta[2 * n]!;
+          di += c * delta[2 * n + 1]!;
+        }
       }
     }
-    const jj = ((j % (m * u)) + m * u) % (m * u);
-    const re = ff[2 * jj]! + dr;
-    const im = ff[2 * jj + 1]! + di;
+    floatAt(j);
+    const re = floatAt.re + dr;
+    const im = floatAt.im + di;
     return re * re + im * im;
   };
-  const pc = powerOfInterleaved(coarse);
+  const pc = powerOfInterleaved(coarse, scratch.power);
   let cPeak = 0;
   for (let n = 1; n < m; n++) if (pc[n]! > pc[cPeak]!) cPeak = n;
   // Mainlobe on a fine window around the coarse peak, widened until both first minima lie inside it.
@@ -209,7 +268,36 @@ export function refinedResponse(ctx: SweepContext, spectrum: Float64Array): Resp
       }
     }
     const hp = peakP / 2;
-    const width = (halfPowerCrossing(win, p, hp, 1) - halfPowerCrossing(win, p, hp, -1)) / u;
+    let width: number;
+    const fg = ctx.floatGrid;
+    if (fg) {
+      // Band-limited crossing: float (exact, from its ×2 grid) + Δ interpolated at the fraction.
+      const i0b = besselI0(KAISER_BETA);
+      const atFraction = (t: number): number => {
+        const x = t / u;
+        const n0 = Math.floor(x);
+        let dr = 0;
+        let di = 0;
+        for (let q = -k + 1; q <= k; q++) {
+          const n = (((n0 + q) % m) + m) % m;
+          const c = deltaKernelAt(x - n0 - q, i0b);
+          dr += c * delta[2 * n]!;
+          di += c * delta[2 * n + 1]!;
+        }
+        fg.atFraction(t);
+        const re = fg.re + dr;
+        const im = fg.im + di;
+        return re * re + im * im;
+      };
+      const winAt = (j: number) => (j >= start && j < start + len ? win[j - start]! : fineP(j));
+      const lim = m * u;
+      width =
+        (bandLimitedCrossing(atFraction, winAt, start + p, hp, 1, lim) -
+          bandLimitedCrossing(atFraction, winAt, start + p, hp, -1, lim)) /
+        u;
+    } else {
+      width = (halfPowerCrossing(win, p, hp, 1) - halfPowerCrossing(win, p, hp, -1)) / u;
+    }
     const seconds = width / ctx.sampleRateHz;
     const peakIndex = start + p;
     return {
@@ -226,13 +314,22 @@ export function refinedResponse(ctx: SweepContext, spectrum: Float64Array): Resp
   }
 }
 
-/** The full computation for one product spectrum (the reference the refinement is checked against). */
-export function fullResponse(ctx: SweepReference, spectrum: Float64Array): ResponseMetrics {
+/**
+ * The full computation for one product spectrum (the reference the refinement is checked against):
+ * `measureRefined`, which gives the whole-grid figures (shared/dsp/refine.ts), or with `grid: "full"`
+ * the whole ×U grid itself.
+ */
+export function fullResponse(
+  ctx: SweepReference,
+  spectrum: Float64Array,
+  grid: "refined" | "full" = "refined",
+): ResponseMetrics {
   const opts = {
     interpolation: ctx.interpolation,
     sampleRateHz: ctx.sampleRateHz,
     expectedIndex: ctx.expectedIndex,
   };
+  if (grid === "refined") return measureRefined(spectrum, opts, ctx.workspace).metrics;
   return measureInterpolated(spectrum, opts, {
     complex: false,
     ...(ctx.workspace ? { workspace: ctx.workspace } : {}),

@@ -13,7 +13,9 @@ export interface ComplexSignal {
 export type RoundingMode =
   | "nearest-away" // roundTiesToAway
   | "nearest-even" // roundTiesToEven
+  | "nearest-up" // ties toward +∞: add half an LSB, then floor (the cheapest rounding in hardware)
   | "floor" // roundTowardNegative ("truncate" in two's complement)
+  | "ceiling" // roundTowardPositive
   | "toward-zero"; // roundTowardZero
 
 export type OverflowMode = "saturate" | "wrap";

@@ -1,6 +1,8 @@
 /**
  * The analysis spec: what `analyze()` (shared/dsp/analysis.ts), the command line and the web app's
- * forms accept. Parsing applies the defaults, so a parsed spec is complete and reproducible.
+ * forms accept. Parsing applies the defaults, so a parsed spec is complete and reproducible (the
+ * interpolation's default depends on the waveform and is applied by `analyze()`, which reports the U used).
+ * Every object is strict: an unknown key is an error that names it (a misspelt `windw` is not dropped).
  */
 import { z } from "zod";
 
@@ -9,14 +11,14 @@ const sampleArray = z.array(z.number().finite()).min(1, "at least one sample").m
 
 /** A window kind with its parameters (shared/dsp/windows.ts WindowSpec). */
 export const WindowSpecSchema = z.discriminatedUnion("kind", [
-  z.object({ kind: z.literal("rectangular") }),
-  z.object({ kind: z.literal("hann") }),
-  z.object({ kind: z.literal("hamming") }),
-  z.object({ kind: z.literal("blackman") }),
-  z.object({ kind: z.literal("blackman-harris") }),
-  z.object({ kind: z.literal("kaiser"), beta: z.number().min(0).max(100) }),
-  z.object({ kind: z.literal("chebyshev"), attenuationDb: z.number().min(13).max(300) }),
-  z.object({
+  z.strictObject({ kind: z.literal("rectangular") }),
+  z.strictObject({ kind: z.literal("hann") }),
+  z.strictObject({ kind: z.literal("hamming") }),
+  z.strictObject({ kind: z.literal("blackman") }),
+  z.strictObject({ kind: z.literal("blackman-harris") }),
+  z.strictObject({ kind: z.literal("kaiser"), beta: z.number().min(0).max(100) }),
+  z.strictObject({ kind: z.literal("chebyshev"), attenuationDb: z.number().min(13).max(300) }),
+  z.strictObject({
     kind: z.literal("taylor"),
     nbar: z.number().int().min(1).max(100),
     sidelobeDb: z.number().min(-300).max(-13),
@@ -24,17 +26,19 @@ export const WindowSpecSchema = z.discriminatedUnion("kind", [
 ]);
 
 /** Fixed-point format of one table (shared/dsp/types.ts FixedPointSpec), with the usual defaults. */
-export const FixedPointSpecSchema = z.object({
+export const FixedPointSpecSchema = z.strictObject({
   wordLength: z.number().int().min(2).max(32),
   fractionLength: z.number().int().min(-64).max(96),
   signed: z.boolean().default(true),
   scaling: z.enum(["as-given", "normalize", "full-scale"]).default("full-scale"),
-  rounding: z.enum(["nearest-away", "nearest-even", "floor", "toward-zero"]).default("nearest-even"),
+  rounding: z
+    .enum(["nearest-away", "nearest-even", "nearest-up", "floor", "ceiling", "toward-zero"])
+    .default("nearest-even"),
   overflow: z.enum(["saturate", "wrap"]).default("saturate"),
 });
 
 /** Acceptance limits; every field optional (absent = not checked). */
-export const AcceptanceLimitsSchema = z.object({
+export const AcceptanceLimitsSchema = z.strictObject({
   pslDbMax: z.number().finite().optional(),
   islrDbMax: z.number().finite().optional(),
   mismatchLossDbMax: z.number().finite().optional(),
@@ -46,7 +50,7 @@ export const AcceptanceLimitsSchema = z.object({
 
 /** The transmit waveform: from a generator's parameters or as explicit samples. */
 export const WaveformSourceSchema = z.discriminatedUnion("kind", [
-  z.object({
+  z.strictObject({
     kind: z.literal("lfm"),
     bandwidthHz: positive("Hz"),
     pulseWidthS: positive("s"),
@@ -55,24 +59,24 @@ export const WaveformSourceSchema = z.discriminatedUnion("kind", [
     output: z.enum(["complex", "real"]).default("complex"),
     intermediateFrequencyHz: z.number().finite().optional(),
   }),
-  z.object({
+  z.strictObject({
     kind: z.literal("nlfm"),
     bandwidthHz: positive("Hz"),
     pulseWidthS: positive("s"),
     sampleRateHz: positive("Hz"),
     window: WindowSpecSchema,
   }),
-  z.object({
+  z.strictObject({
     kind: z.literal("phase-code"),
     code: z.discriminatedUnion("kind", [
-      z.object({ kind: z.literal("barker"), length: z.literal([2, 3, 4, 5, 7, 11, 13]) }),
-      z.object({ kind: z.enum(["frank", "p1", "p2"]), order: z.number().int().min(2).max(64) }),
-      z.object({ kind: z.enum(["p3", "p4"]), length: z.number().int().min(2).max(4096) }),
+      z.strictObject({ kind: z.literal("barker"), length: z.literal([2, 3, 4, 5, 7, 11, 13]) }),
+      z.strictObject({ kind: z.enum(["frank", "p1", "p2"]), order: z.number().int().min(2).max(64) }),
+      z.strictObject({ kind: z.enum(["p3", "p4"]), length: z.number().int().min(2).max(4096) }),
     ]),
     samplesPerChip: z.number().int().min(1).max(256).default(1),
     sampleRateHz: positive("Hz"),
   }),
-  z.object({
+  z.strictObject({
     kind: z.literal("samples"),
     sampleRateHz: positive("Hz"),
     re: sampleArray,
@@ -82,7 +86,7 @@ export const WaveformSourceSchema = z.discriminatedUnion("kind", [
 
 /** A FIR filter: designed by the windowed-sinc method, or explicit taps with the bands to judge them by. */
 export const FirSourceSchema = z.discriminatedUnion("kind", [
-  z.object({
+  z.strictObject({
     kind: z.literal("design"),
     band: z.enum(["lowpass", "bandpass"]),
     sampleRateHz: positive("Hz"),
@@ -94,7 +98,7 @@ export const FirSourceSchema = z.discriminatedUnion("kind", [
     window: WindowSpecSchema.optional(),
     taps: z.number().int().min(1).max(65_536).optional(),
   }),
-  z.object({
+  z.strictObject({
     kind: z.literal("taps"),
     sampleRateHz: positive("Hz"),
     re: sampleArray,
@@ -107,7 +111,7 @@ export const FirSourceSchema = z.discriminatedUnion("kind", [
 
 /** Which word lengths the sweep tries, and which tables it varies (default: the receive/FIR table). */
 export const SweepSpecSchema = z
-  .object({
+  .strictObject({
     minBits: z.number().int().min(2).max(32).default(6),
     maxBits: z.number().int().min(2).max(32).default(24),
     tables: z
@@ -118,8 +122,11 @@ export const SweepSpecSchema = z
   .refine((s) => s.minBits <= s.maxBits, { message: "minBits must not exceed maxBits", path: ["maxBits"] });
 
 const common = {
-  /** Interpolation factor U of the compressed output before measuring (1 = none). */
-  interpolation: z.number().int().min(1).max(16).default(8),
+  /**
+   * Interpolation factor U of the compressed output before measuring (1 = none). Absent: 1 for phase
+   * codes (the sample-grid figures the tables of codes give, e.g. Barker-13 PSL −22.28 dB), else 8.
+   */
+  interpolation: z.number().int().min(1).max(16).optional(),
   limits: AcceptanceLimitsSchema.default({}),
   sweep: SweepSpecSchema.optional(),
   /** ADC (input) word length, for the accumulator growth. */
@@ -127,23 +134,23 @@ const common = {
 };
 
 /** A waveform design: transmit table + matched receive filter h[n] = w[n]·conj(s[N−1−n]). */
-export const WaveformAnalysisSpecSchema = z.object({
+export const WaveformAnalysisSpecSchema = z.strictObject({
   kind: z.literal("waveform"),
   tx: WaveformSourceSchema,
   rx: z
-    .object({ window: WindowSpecSchema.default({ kind: "rectangular" }) })
+    .strictObject({ window: WindowSpecSchema.default({ kind: "rectangular" }) })
     .default({ window: { kind: "rectangular" } }),
-  fixedPoint: z.object({ tx: FixedPointSpecSchema, rx: FixedPointSpecSchema }),
+  fixedPoint: z.strictObject({ tx: FixedPointSpecSchema, rx: FixedPointSpecSchema }),
   /** Doppler frequency of the echo for the ambiguity cut, Hz (absent = no Doppler cut). */
   dopplerHz: z.number().finite().optional(),
   ...common,
 });
 
 /** A FIR design: one table `fir`. */
-export const FilterAnalysisSpecSchema = z.object({
+export const FilterAnalysisSpecSchema = z.strictObject({
   kind: z.literal("filter"),
   fir: FirSourceSchema,
-  fixedPoint: z.object({ fir: FixedPointSpecSchema }),
+  fixedPoint: z.strictObject({ fir: FixedPointSpecSchema }),
   /** Points of the frequency response (at least 8192). */
   responsePoints: z.number().int().min(8192).max(1_048_576).default(8192),
   ...common,

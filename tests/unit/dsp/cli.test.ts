@@ -15,7 +15,8 @@ const run = (args: string[], input?: string) =>
 describe("scripts/analyze.ts", () => {
   it("prints the analysis of a spec file", () => {
     const r = run([fixture]);
-    expect(r.stderr).toBe("");
+    // Only design warnings on stderr (n̄ = 5 is below the monotonic-taper minimum for −35 dB).
+    expect(r.stderr).toMatch(/^(warning: [^\n]*\n)*$/);
     expect(r.status).toBe(0);
     const report = JSON.parse(r.stdout);
     expect(report.kind).toBe("waveform");
@@ -27,6 +28,26 @@ describe("scripts/analyze.ts", () => {
     const r = run(["-"], readFileSync(fixture, "utf8"));
     expect(r.status).toBe(0);
     expect(JSON.parse(r.stdout).fixed.pslDb).toBeLessThan(-30);
+  });
+
+  it("prints the report's design warnings on stderr (a Dolph-Chebyshev edge spike)", () => {
+    const spec = JSON.parse(readFileSync(fixture, "utf8"));
+    spec.rx = { window: { kind: "chebyshev", attenuationDb: 40 } };
+    spec.tx.pulseWidthS = 0.0008; // 2,000 samples: long enough for the edge spike
+    delete spec.sweep;
+    delete spec.dopplerHz;
+    const r = run(["-"], JSON.stringify(spec));
+    expect(r.status).toBe(0);
+    expect(r.stderr).toMatch(/^warning: Dolph-Chebyshev 40 dB over \d+ samples/m);
+    expect(JSON.parse(r.stdout).warnings.length).toBeGreaterThan(0);
+  });
+
+  it("exits 2 naming an unknown key (strict spec)", () => {
+    const spec = JSON.parse(readFileSync(fixture, "utf8"));
+    spec.rx = { windw: { kind: "hamming" } };
+    const r = run(["-"], JSON.stringify(spec));
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/invalid spec: rx: .*windw/);
   });
 
   it("exits 2 naming the field of a bad spec", () => {

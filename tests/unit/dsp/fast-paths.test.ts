@@ -224,8 +224,10 @@ describe("analyze() against the textbook computation", () => {
       interpolateSpectrumPadded(multiplySpectra(spectrumOf(s, size), spectrumOf(h, size)), 8),
     );
     const ref = measureResponseDirect(p, { interpolation: 8, sampleRateHz: 12.5e6, expectedIndex: 4095 * 8 });
-    for (const k of ["peakPositionSamples", "width3dbSamples", "pslDb"] as const)
-      expect(r.float[k]).toBeCloseTo(ref[k], 9);
+    for (const k of ["peakPositionSamples", "pslDb"] as const) expect(r.float[k]).toBeCloseTo(ref[k], 9);
+    // The width is the band-limited −3 dB crossing (tests/unit/dsp/refine.test.ts checks it against a
+    // direct DFT evaluation); the straight line between ×8 points is within 0.3 % of it.
+    expect(Math.abs(r.float.width3dbSamples! / ref.width3dbSamples - 1)).toBeLessThan(3e-3);
     expect(Math.abs(r.float.islrDb! - ref.islrDb)).toBeLessThan(1e-9);
     expect(Math.abs(r.float.peakAmplitude! / ref.peakAmplitude - 1)).toBeLessThan(1e-12);
   });

@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { codeRange, quantize } from "@shared/dsp/quantize";
+import { codeRange, quantize, SNAP_ULPS } from "@shared/dsp/quantize";
 import type { FixedPointSpec, OverflowMode, RoundingMode, ScalingMode } from "@shared/dsp/types";
 
 const MODES: RoundingMode[] = ["nearest-away", "nearest-even", "floor", "toward-zero"];
@@ -110,9 +110,15 @@ describe("quantize: properties (fast-check)", () => {
           const { min, max } = codeRange(s);
           const m = 2n ** BigInt(s.wordLength);
           let overflows = 0;
+          // Values within SNAP_ULPS ulps of the peak from an integer are that integer (quantize.ts).
+          const peak = Math.max(...xs.map(Math.abs));
+          const snap = SNAP_ULPS * Number.EPSILON * peak * 2 ** s.fractionLength;
           xs.forEach((x, i) => {
             const u = x * 2 ** s.fractionLength;
-            const r = BigInt(s.rounding === "floor" ? Math.floor(u) : Math.trunc(u));
+            const near = Math.round(u);
+            const r = BigInt(
+              Math.abs(u - near) <= snap ? near : s.rounding === "floor" ? Math.floor(u) : Math.trunc(u),
+            );
             if (r < BigInt(min) || r > BigInt(max)) overflows++;
             const want = ((((r - BigInt(min)) % m) + m) % m) + BigInt(min);
             expect(BigInt(q.re[i]!)).toBe(want);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { convolutionSize, multiplySpectra, spectrumOf } from "@shared/dsp/compression";
-import { measureSpectrum } from "@shared/dsp/metrics";
+import { measureRefined } from "@shared/dsp/refine";
 import { quantize } from "@shared/dsp/quantize";
 import {
   confirmSmallest,
@@ -50,13 +50,13 @@ describe("refined sweep vs the full ×U computation", () => {
     const u = 8;
     const size = convolutionSize(n);
     const sSpec = spectrumOf(s, size);
-    const fl = measureSpectrum(multiplySpectra(sSpec, spectrumOf(h, size)), {
+    const fl = measureRefined(multiplySpectra(sSpec, spectrumOf(h, size)), {
       interpolation: u,
       sampleRateHz: os,
       expectedIndex: (n - 1) * u,
     });
     const ctx = prepareSweep({
-      floatFine: fl.y,
+      floatGrid: fl.fine,
       floatMetrics: fl.metrics,
       size,
       interpolation: u,
@@ -68,6 +68,12 @@ describe("refined sweep vs the full ×U computation", () => {
       const prod = multiplySpectra(sSpec, spectrumOf(fixedOf(h, w), size));
       const r = refinedResponse(ctx, prod);
       const f = fullResponse(ctx, prod);
+      // The refined full response against the whole ×U grid (PSL/ISLR/peak as before; width band-limited).
+      const g = fullResponse(ctx, prod, "full");
+      expect(Math.abs(f.pslDb - g.pslDb)).toBeLessThan(1e-9);
+      expect(Math.abs(f.islrDb - g.islrDb)).toBeLessThan(1e-9);
+      expect(f.peakAmplitude).toBe(g.peakAmplitude);
+      expect(Math.abs(f.width3dbSamples / g.width3dbSamples - 1)).toBeLessThan(3e-3);
       worstPsl = Math.max(worstPsl, Math.abs(r.pslDb - f.pslDb));
       // Stated tolerances; measured worst PSL error 0.0078 dB at fs = 1.25·B, 0.0010 dB at fs = 2·B.
       expect(Math.abs(r.pslDb - f.pslDb)).toBeLessThan(0.02);

@@ -10,7 +10,9 @@ export type WindowKind = WindowSpec["kind"];
 export const ROUNDING_LABELS = {
   "nearest-even": "nearest, ties even",
   "nearest-away": "nearest, ties away",
+  "nearest-up": "nearest, ties up",
   floor: "floor (truncate)",
+  ceiling: "ceiling (toward +∞)",
   "toward-zero": "toward zero",
 } as const;
 

@@ -65,7 +65,9 @@ export function FixedPointFields({ role }: { role: Role }) {
         options={[
           ["nearest-even", "Nearest, ties to even"],
           ["nearest-away", "Nearest, ties away"],
+          ["nearest-up", "Nearest, ties up (add ½ LSB, floor)"],
           ["floor", "Floor (truncate)"],
+          ["ceiling", "Ceiling (toward +∞)"],
           ["toward-zero", "Toward zero"],
         ]}
       />

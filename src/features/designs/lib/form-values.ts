@@ -20,7 +20,7 @@ export interface FixedPointFields {
   fractionLength: number;
   signed: boolean;
   scaling: "as-given" | "normalize" | "full-scale";
-  rounding: "nearest-away" | "nearest-even" | "floor" | "toward-zero";
+  rounding: "nearest-away" | "nearest-even" | "nearest-up" | "floor" | "ceiling" | "toward-zero";
   overflow: "saturate" | "wrap";
 }
 

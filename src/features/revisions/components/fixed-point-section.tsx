@@ -26,7 +26,9 @@ const SCALING: Record<Spec["scaling"], string> = {
 const ROUNDING: Record<Spec["rounding"], string> = {
   "nearest-away": "nearest, ties away",
   "nearest-even": "nearest, ties even",
+  "nearest-up": "nearest, ties up",
   floor: "floor (truncate)",
+  ceiling: "ceiling (toward +∞)",
   "toward-zero": "toward zero",
 };
 const OVERFLOW: Record<Spec["overflow"], string> = { saturate: "saturate", wrap: "wrap" };
