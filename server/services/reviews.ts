@@ -33,6 +33,7 @@ import { env } from "../env";
 import { HttpError } from "../http/errors";
 import { notify } from "../mail/notifications";
 import { recordAudit } from "./audit";
+import { contentAuthorIds, contentAuthorsOf } from "./authorship";
 import { canonicalJson } from "./content-hash";
 import { projectAccess, type ProjectRef, type Tx } from "./designs";
 import { allowedActions, authorize, type LifecycleSubject } from "./lifecycle";
@@ -76,6 +77,7 @@ export async function revisionFacts(
   const [row] = lock ? await q.for("update", { of: revisions }) : await q;
   if (!row) throw new HttpError("not_found", "No such revision");
   const project = await projectAccess(db, viewer, row.projectId, "No such revision");
+  const authorIds = await contentAuthorIds(db, row.id);
   return {
     id: row.id,
     designId: row.designId,
@@ -85,6 +87,7 @@ export async function revisionFacts(
     createdById: row.createdById,
     submittedById: row.submittedById,
     submittedAt: row.submittedAt,
+    authorIds,
     design: { id: row.designId, name: row.designName, kind: row.designKind },
     project,
   };
@@ -413,6 +416,10 @@ export async function reviewQueue(db: Db, viewer: Viewer): Promise<QueueItem[]> 
       if (s) summaries.set(d.hash, s);
     }
   }
+  const authors = await contentAuthorsOf(
+    db,
+    rows.map((r) => r.revisionId),
+  );
   return rows.map((r) => {
     const s = r.contentHash ? (summaries.get(r.contentHash) ?? null) : null;
     return {
@@ -426,7 +433,7 @@ export async function reviewQueue(db: Db, viewer: Viewer): Promise<QueueItem[]> 
       projectName: r.projectName,
       submittedBy: person(r.submittedById ?? 0, r.submittedByName),
       submittedAt: (r.submittedAt ?? new Date(0)).toISOString(),
-      canDecide: r.submittedById !== viewer.id,
+      canDecide: r.submittedById !== viewer.id && !authors.get(r.revisionId)?.has(viewer.id),
       pass: s?.pass ?? null,
       failing: failingOf(s),
     };
