@@ -1,19 +1,17 @@
 import type { Server } from "node:http";
-import pino from "pino";
 import { createApp } from "./app";
 import { openDatabase, runMigrations } from "./db/client";
 import { env } from "./env";
+import { createLogger } from "./http/logging";
+import { applyServerTimeouts } from "./http/timeouts";
 import { jobsConfig } from "./jobs/config";
 import { startAnalysisWorker } from "./jobs/worker";
 import { startMail } from "./mail/runtime";
 
 // Start-up: read the environment, migrate, listen; stop cleanly on SIGINT/SIGTERM.
 const config = env();
-const logger = pino({
-  level: config.NODE_ENV === "test" ? "warn" : config.LOG_LEVEL,
-  // Session cookies and passwords never reach the log.
-  redact: ["req.headers.cookie", 'res.headers["set-cookie"]', "req.body.password"],
-});
+// Credentials (Authorization, cookies, passwords, any tw_ token secret) never reach the log.
+const logger = createLogger(config.NODE_ENV === "test" ? "warn" : config.LOG_LEVEL);
 const database = openDatabase(config.DATABASE_URL);
 
 await runMigrations(database.db);
@@ -24,6 +22,7 @@ const { app, close } = createApp({
   version: config.TAPWRIGHT_VERSION,
   clientDist: config.CLIENT_DIST,
   logger,
+  publicOrigins: [new URL(config.PUBLIC_URL).origin],
 });
 
 // Mail: the loopback SMTP sink (development/tests) and the outbox dispatcher (issue 6).
@@ -47,6 +46,7 @@ const server: Server = app.listen(config.PORT, config.HOST, () => {
   const port = typeof address === "object" && address ? address.port : config.PORT;
   logger.info(`Tapwright API listening on http://${config.HOST}:${port}`);
 });
+applyServerTimeouts(server);
 
 let stopping = false;
 function shutdown(signal: string): void {
