@@ -208,7 +208,7 @@ export async function createDesign(
   const tables = await tablesFor(db, projectId, input.content);
   const nameTaken = () =>
     new HttpError("conflict", `A design named "${input.name}" already exists in this project (in any case)`, [
-      { path: ["name"], message: "this name is taken in the project (names are compared in any case)" },
+      { path: ["name"], message: "this name is taken in the project" },
     ]);
   const ids = await db.transaction(async (tx) => {
     const [design] = await tx
