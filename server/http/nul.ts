@@ -8,7 +8,11 @@ import { validationFailed, type FieldIssue } from "./errors";
 const MESSAGE = "contains a NUL character (U+0000), which is not allowed";
 
 /** Paths (as in validation_failed details) of every string holding a NUL, in a parsed JSON value. */
-export function nulPaths(value: unknown, path: (string | number)[] = [], out: FieldIssue[] = []): FieldIssue[] {
+export function nulPaths(
+  value: unknown,
+  path: (string | number)[] = [],
+  out: FieldIssue[] = [],
+): FieldIssue[] {
   if (out.length >= 20) return out;
   if (typeof value === "string") {
     if (value.includes("\u0000")) out.push({ path, message: MESSAGE });

@@ -32,7 +32,11 @@ export async function recordContentAuthors(
 }
 
 /** A revision started from another carries its content over, and with it the other's authors. */
-export async function inheritContentAuthors(tx: Tx, fromRevisionId: number, toRevisionId: number): Promise<void> {
+export async function inheritContentAuthors(
+  tx: Tx,
+  fromRevisionId: number,
+  toRevisionId: number,
+): Promise<void> {
   await tx.execute(sql`
     insert into ${revisionAuthors} (revision_id, user_id, first_at)
     select ${toRevisionId}, user_id, first_at from ${revisionAuthors} where revision_id = ${fromRevisionId}
@@ -49,7 +53,10 @@ export async function contentAuthorIds(db: Db | Tx, revisionId: number): Promise
 }
 
 /** Content authors of several revisions at once. */
-export async function contentAuthorsOf(db: Db | Tx, revisionIds: number[]): Promise<Map<number, Set<number>>> {
+export async function contentAuthorsOf(
+  db: Db | Tx,
+  revisionIds: number[],
+): Promise<Map<number, Set<number>>> {
   const out = new Map<number, Set<number>>(revisionIds.map((id) => [id, new Set()]));
   if (revisionIds.length === 0) return out;
   const rows = await db

@@ -141,11 +141,10 @@ export function refusal(
       reason: "self_review",
     });
   if (rule.notAuthor && subject.authorIds.includes(viewer.id))
-    return new HttpError(
-      "forbidden",
-      "You wrote content of this revision, so someone else must review it",
-      { action, reason: "content_author" },
-    );
+    return new HttpError("forbidden", "You wrote content of this revision, so someone else must review it", {
+      action,
+      reason: "content_author",
+    });
   return null;
 }
 

@@ -430,7 +430,7 @@ describe("accounts: forced change, sessions, policy, back-off, roles", () => {
   ];
 
   it.each(policy)("the policy refuses a password that is $name", async (p) => {
-    const username = `policy${process.pid}${policy.indexOf(p)}`;
+    const username = `policy-user-${process.pid}-${policy.indexOf(p)}`;
     await addUser(t.database, username, ["author"], []);
     const agent = await signedIn(t.app, username);
     const res = await agent
@@ -591,7 +591,11 @@ describe("names: normalised, no invisible characters, unique in any case", () =>
 });
 
 describe("NUL characters answer 400, never 500", () => {
-  const probes: { name: string; send: (a: Agent, pid: number) => Promise<request.Response> }[] = [
+  const probes: {
+    name: string;
+    send: (a: Agent, pid: number) => Promise<request.Response>;
+    code?: "bad_request";
+  }[] = [
     {
       name: "in a design name",
       send: (a, pid) =>
@@ -608,11 +612,13 @@ describe("NUL characters answer 400, never 500", () => {
       name: "in an upload file name",
       send: (a, pid) =>
         a.post(`/api/projects/${pid}/uploads`).attach("file", Buffer.from("0.5\n"), "a\u0000b.txt"),
+      // A raw NUL in a part header: busboy refuses the body itself.
+      code: "bad_request",
     },
   ];
   it.each(probes)("$name", async (p) => {
     const author = await signedIn(t.app, "author");
-    expectError(await p.send(author, await coastwatch()), 400, "validation_failed");
+    expectError(await p.send(author, await coastwatch()), 400, p.code ?? "validation_failed");
   });
 });
 

@@ -73,7 +73,10 @@ export function authRoutes(ctx: RouteContext): Router {
     keyGenerator: (req) => ipKeyGenerator(req.ip ?? ""),
     handler: (_req, _res, next) =>
       next(
-        new HttpError("rate_limited", "Too many sign-in attempts from this address; wait a minute and try again"),
+        new HttpError(
+          "rate_limited",
+          "Too many sign-in attempts from this address; wait a minute and try again",
+        ),
       ),
   });
 

@@ -38,6 +38,9 @@ const receiveFile: RequestHandler = (req, res, next) => {
       }
       return next(new HttpError("bad_request", `Upload refused: ${err.message}`));
     }
+    // busboy's own refusals of a broken body (a NUL or line break in a part header, a cut-off form).
+    if (err instanceof Error && /^(Malformed|Unexpected end|Multipart:)/.test(err.message))
+      return next(new HttpError("bad_request", `The multipart body could not be read: ${err.message}`));
     next(err);
   });
 };
@@ -58,7 +61,12 @@ export function projectUploadRoutes(ctx: RouteContext): Router {
       throw new HttpError("bad_request", "Send the file as multipart/form-data in a field named file");
     if (hasNul(req.file.originalname))
       throw validationFailed(
-        [{ path: ["file"], message: "the file name contains a NUL character (U+0000), which is not allowed" }],
+        [
+          {
+            path: ["file"],
+            message: "the file name contains a NUL character (U+0000), which is not allowed",
+          },
+        ],
         "The file name contains a NUL character (U+0000), which is not allowed",
       );
     const upload = await createUpload(ctx.db, currentUser(req), projectId, req.file);
