@@ -29,7 +29,7 @@ export function nulPaths(
 
 /** 400 for a NUL anywhere in the URL (path or query, percent-encoded or not). */
 export const refuseNulInUrl: RequestHandler = (req, _res, next) => {
-  if (/%00|\u0000/i.test(req.originalUrl))
+  if (/%00/i.test(req.originalUrl) || req.originalUrl.includes("\u0000"))
     throw validationFailed([{ path: ["url"], message: `the URL ${MESSAGE}` }], `The URL ${MESSAGE}`);
   next();
 };

@@ -30,7 +30,11 @@ export const NewPasswordSchema = z
 
 /** What is wrong with a password for this user beyond NewPasswordSchema, or null. */
 export function passwordProblem(password: string, username: string): string | null {
-  const folded = (s: string) => s.normalize("NFKC").toLowerCase().replace(/[\s._-]+/g, "");
+  const folded = (s: string) =>
+    s
+      .normalize("NFKC")
+      .toLowerCase()
+      .replace(/[\s._-]+/g, "");
   const p = folded(password);
   const u = folded(username);
   if (u.length > 0 && p === u) return "must not be your user name";
