@@ -6,12 +6,15 @@ import helmet from "helmet";
 import { existsSync } from "node:fs";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import { pinoHttp } from "pino-http";
 import pino, { type Logger } from "pino";
 import { bearerAuth } from "./auth/bearer";
+import { requirePasswordChanged } from "./auth/guards";
 import { createPassport, forgetSessionUsers } from "./auth/passport";
 import type { Database } from "./db/client";
 import { apiNotFound, errorHandler } from "./http/errors";
+import { requestLogger } from "./http/logging";
+import { refuseNulInBody, refuseNulInUrl } from "./http/nul";
+import { sameOriginOnly } from "./http/same-origin";
 import { accountRoutes } from "./routes/account";
 import { adminUserRoutes } from "./routes/admin-users";
 import { analysisRoutes } from "./routes/analyses";
@@ -51,6 +54,11 @@ export interface AppDeps {
   /** Express "trust proxy" setting, for deployments behind a TLS-terminating proxy. */
   trustProxy?: boolean | number | string;
   signInLimitPerMinute?: number;
+  /**
+   * Origins besides the request's own host that may send state-changing requests (the PUBLIC_URL behind a
+   * proxy that rewrites Host), e.g. "https://tapwright.example.internal".
+   */
+  publicOrigins?: string[];
   /** Minutes between deletions of expired session rows; false turns pruning off (tests). */
   pruneSessionsMinutes?: number | false;
 }
@@ -100,15 +108,17 @@ export function createApp(deps: AppDeps): CreatedApp {
     }),
   );
   app.use(compression());
+  app.use(requestLogger(logger));
+  // Before anything reads a body: a state-changing request from another origin changes nothing (CSRF).
   app.use(
-    pinoHttp({
-      logger,
-      autoLogging: { ignore: (req) => req.url === "/api/health" },
-      customLogLevel: (_req, res, err) =>
-        err || res.statusCode >= 500 ? "error" : res.statusCode >= 400 ? "warn" : "info",
+    sameOriginOnly({
+      sessionCookie: SESSION_COOKIE,
+      allowedOrigins: deps.publicOrigins ?? [],
     }),
   );
+  app.use(refuseNulInUrl);
   app.use(express.json({ limit: "2mb" }));
+  app.use(refuseNulInBody);
 
   const PgStore = connectPgSimple(session);
   const store = new PgStore({
@@ -140,7 +150,8 @@ export function createApp(deps: AppDeps): CreatedApp {
       rolling: true,
       cookie: {
         httpOnly: true,
-        sameSite: "lax",
+        // Strict: no other site's page, link or form ever carries the session (the origin check covers same-site).
+        sameSite: "strict",
         secure: production ? "auto" : false,
         maxAge: 8 * 60 * 60 * 1000, // a working day; rolling renews it on each request
         path: "/",
@@ -162,10 +173,13 @@ export function createApp(deps: AppDeps): CreatedApp {
     passport,
     version: deps.version,
     signInLimitPerMinute: deps.signInLimitPerMinute ?? 10,
+    // Three people behind one office address may each mistype their way to the per-name limit.
+    signInLimitPerAddressPerMinute: 3 * (deps.signInLimitPerMinute ?? 10),
   };
   const api = express.Router();
   // Bearer tokens act as their owner (read scope: GET/HEAD only); a bad token is 401 before any route.
   api.use(bearerAuth(ctx.db));
+  api.use(requirePasswordChanged);
   api.use("/health", healthRoutes(ctx));
   api.use("/auth", authRoutes(ctx));
   api.use("/account", accountRoutes(ctx));

@@ -2,10 +2,11 @@ import { existsSync } from "node:fs";
 import { createServer, type Server } from "node:http";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import pino from "pino";
 import { createApp } from "./app";
 import { openDatabase, runMigrations } from "./db/client";
 import { env } from "./env";
+import { createLogger } from "./http/logging";
+import { applyServerTimeouts } from "./http/timeouts";
 import { jobsConfig } from "./jobs/config";
 import { startAnalysisWorker } from "./jobs/worker";
 import { startMail } from "./mail/runtime";
@@ -34,11 +35,8 @@ try {
 } catch (err) {
   startFailed("the environment", err);
 }
-const logger = pino({
-  level: config.NODE_ENV === "test" ? "warn" : config.LOG_LEVEL,
-  // Session cookies and passwords never reach the log.
-  redact: ["req.headers.cookie", 'res.headers["set-cookie"]', "req.body.password"],
-});
+// Credentials (Authorization, cookies, passwords, any tw_ token secret) never reach the log.
+const logger = createLogger(config.NODE_ENV === "test" ? "warn" : config.LOG_LEVEL);
 
 // Production serves the built client: without it every page would be a 404, so refuse instead.
 if (config.NODE_ENV === "production") {
@@ -73,6 +71,7 @@ const { app, close } = createApp({
   version: config.TAPWRIGHT_VERSION,
   clientDist: config.CLIENT_DIST,
   logger,
+  publicOrigins: [new URL(config.PUBLIC_URL).origin],
 });
 
 // The web port first: a busy port fails here, before the mail sink and the worker start.
@@ -82,6 +81,7 @@ await new Promise<void>((resolve) => {
   server.listen(config.PORT, config.HOST, () => resolve());
 });
 server.removeAllListeners("error");
+applyServerTimeouts(server);
 server.on("error", (err) => logger.error({ err }, "http server error"));
 {
   const address = server.address();

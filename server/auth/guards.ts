@@ -24,3 +24,26 @@ export function requireRole(...roles: Role[]): RequestHandler {
     next();
   };
 }
+
+// What a user on a temporary password may still do (paths inside /api): change it, sign out, ask who they are.
+const WHILE_PASSWORD_MUST_CHANGE = new Set([
+  "POST /account/password",
+  "POST /auth/sign-out",
+  "POST /auth/sign-in",
+  "GET /auth/me",
+  "GET /health",
+  "HEAD /health",
+]);
+
+/**
+ * Until a user on a temporary password (set by an admin) has chosen their own, every other API route answers
+ * 403 `password_change_required`, whether the request came with the session or with an API token.
+ */
+export const requirePasswordChanged: RequestHandler = (req, _res, next) => {
+  if (req.user?.mustChangePassword && !WHILE_PASSWORD_MUST_CHANGE.has(`${req.method} ${req.path}`))
+    throw new HttpError(
+      "password_change_required",
+      "You are signed in with a temporary password: change it (POST /api/account/password) before anything else",
+    );
+  next();
+};

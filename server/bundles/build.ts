@@ -126,6 +126,7 @@ export async function buildReleaseBundle(tx: Executor, input: BuildReleaseInput)
       designId: designs.id,
       designName: designs.name,
       designKind: designs.kind,
+      projectId: projects.id,
       projectSlug: projects.slug,
       projectName: projects.name,
     })
@@ -142,7 +143,13 @@ export async function buildReleaseBundle(tx: Executor, input: BuildReleaseInput)
   const [reportRow] = await tx
     .select()
     .from(analysisReports)
-    .where(and(eq(analysisReports.contentHash, contentHash), eq(analysisReports.state, "done")));
+    .where(
+      and(
+        eq(analysisReports.projectId, rev.projectId),
+        eq(analysisReports.contentHash, contentHash),
+        eq(analysisReports.state, "done"),
+      ),
+    );
   if (!reportRow?.report || !reportRow.finishedAt)
     throw new BundleBuildError(`revision r${rev.number} has no finished analysis report for its content`);
   const report = reportRow.report as AnalysisReport;

@@ -70,6 +70,9 @@ function code(value: unknown): number {
   return n;
 }
 
+const DATE_FILTERS = ["date", "date_to_xmlschema", "date_to_rfc822", "date_to_string", "date_to_long_string"];
+const CLOCK_WORDS = new Set(["now", "today"]);
+
 /** A configured engine: strict, no file system, our filters. */
 export function createExportEngine(): Liquid {
   const liquid = new Liquid({
@@ -82,6 +85,8 @@ export function createExportEngine(): Liquid {
     renderLimit: TEMPLATE_LIMITS.renderMs,
     memoryLimit: TEMPLATE_LIMITS.memoryChars,
     cache: false,
+    // Dates format in UTC, so the server's time zone never changes an export's bytes.
+    timezoneOffset: 0,
   });
   for (const tag of ["include", "render", "layout"]) {
     liquid.registerTag(tag, {
@@ -91,6 +96,20 @@ export function createExportEngine(): Liquid {
       render() {
         return "";
       },
+    });
+  }
+  // The date filters read the clock for "now" and "today": an export must be the same bytes every time it is
+  // rendered, so those inputs are refused; dates given by the context (and literal ones) still format.
+  for (const name of DATE_FILTERS) {
+    const builtIn = liquid.filters[name];
+    const handler = typeof builtIn === "function" ? builtIn : builtIn?.handler;
+    if (!handler) continue;
+    liquid.registerFilter(name, function (this: unknown, v: unknown, ...args: unknown[]) {
+      if (typeof v === "string" && CLOCK_WORDS.has(v.trim().toLowerCase()))
+        throw new TypeError(
+          `the ${name} filter cannot read the clock ("${v}"): an export must not change with the time it is rendered`,
+        );
+      return (handler as (this: unknown, ...a: unknown[]) => unknown).call(this, v, ...args);
     });
   }
   liquid.registerFilter("hex", function (this: { context: Ctx }, v: unknown, width?: unknown) {

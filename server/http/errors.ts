@@ -12,6 +12,8 @@ const STATUS: Record<ErrorCode, number> = {
   rate_limited: 429,
   internal: 500,
   bundle_corrupt: 500,
+  cross_site: 403,
+  password_change_required: 403,
 };
 
 /** The one error type the server throws on purpose; the error middleware turns it into JSON. */

@@ -8,4 +8,6 @@ export interface RouteContext {
   version: string;
   /** Sign-in attempts allowed per minute per IP and user name. */
   signInLimitPerMinute: number;
+  /** Sign-in attempts allowed per minute per IP over all user names. */
+  signInLimitPerAddressPerMinute: number;
 }

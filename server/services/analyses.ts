@@ -1,6 +1,8 @@
 /**
- * Analysis reports keyed by content hash (issue 5): request (enqueue once), status, the stored report with
- * its header, and the row updates the worker makes. Same content → same hash → the stored report is reused.
+ * Analysis reports keyed by project and content hash: request (enqueue once), status, the stored report with
+ * its header, and the row updates the worker makes. Same content in the same project → the stored report is
+ * reused; another project with the same content gets a row (state, times) of its own, so a report never tells
+ * one project what another holds.
  */
 import { and, asc, eq, inArray, sql } from "drizzle-orm";
 import { toAnalysisSpec } from "../../shared/analysis-spec";
@@ -8,7 +10,7 @@ import { analyze, type AnalysisReport } from "../../shared/dsp/analysis";
 import type { AnalysisStatus, ReportHeader } from "../../shared/schemas/analyses";
 import type { RevisionContent } from "../../shared/schemas/designs";
 import type { Db } from "../db/client";
-import { analysisReports, coefficientTables, revisions } from "../db/schema";
+import { analysisReports, coefficientTables, designs, revisions } from "../db/schema";
 import { HttpError } from "../http/errors";
 import { contentHash } from "./content-hash";
 import type { Viewer } from "./projects";
@@ -55,9 +57,22 @@ export async function currentContentHash(db: Db, revisionId: number): Promise<st
   return contentHash(rev.content, tables);
 }
 
-async function rowByHash(db: Db, hash: string): Promise<Row | undefined> {
-  const [row] = await db.select().from(analysisReports).where(eq(analysisReports.contentHash, hash));
+async function rowByHash(db: Db, projectId: number, hash: string): Promise<Row | undefined> {
+  const [row] = await db
+    .select()
+    .from(analysisReports)
+    .where(and(eq(analysisReports.projectId, projectId), eq(analysisReports.contentHash, hash)));
   return row;
+}
+
+/** The project a revision belongs to. */
+async function projectOfRevision(db: Db, revisionId: number): Promise<number | undefined> {
+  const [row] = await db
+    .select({ projectId: designs.projectId })
+    .from(revisions)
+    .innerJoin(designs, eq(designs.id, revisions.designId))
+    .where(eq(revisions.id, revisionId));
+  return row?.projectId;
 }
 
 /** The queue as the service needs it (server/jobs/queue.ts). */
@@ -77,14 +92,14 @@ export async function requestAnalysis(
   revisionId: number,
   queue: AnalysisQueue,
 ): Promise<AnalysisStatus> {
-  await getRevision(db, viewer, revisionId); // membership: non-members get 404
+  const { project } = await getRevision(db, viewer, revisionId); // membership: non-members get 404
   const hash = await currentContentHash(db, revisionId);
   const [inserted] = await db
     .insert(analysisReports)
-    .values({ contentHash: hash, revisionId })
-    .onConflictDoNothing({ target: analysisReports.contentHash })
+    .values({ projectId: project.id, contentHash: hash, revisionId })
+    .onConflictDoNothing({ target: [analysisReports.projectId, analysisReports.contentHash] })
     .returning();
-  let row = inserted ?? (await rowByHash(db, hash));
+  let row = inserted ?? (await rowByHash(db, project.id, hash));
   if (!row) throw new Error(`analysis row for ${hash} vanished`);
   // A row left queued or running by a job pg-boss gave up on (every attempt's worker lost): queue it again.
   const stale = (row.state === "queued" || row.state === "running") && !(await queue.isLive(hash));
@@ -116,8 +131,8 @@ export async function getAnalysis(
   viewer: Viewer,
   revisionId: number,
 ): Promise<AnalysisStatus | null> {
-  await getRevision(db, viewer, revisionId);
-  const row = await rowByHash(db, await currentContentHash(db, revisionId));
+  const { project } = await getRevision(db, viewer, revisionId);
+  const row = await rowByHash(db, project.id, await currentContentHash(db, revisionId));
   return row ? toStatus(row) : null;
 }
 
@@ -129,7 +144,7 @@ export async function getReportDocument(
 ): Promise<{ header: ReportHeader; report: AnalysisReport }> {
   const detail = await getRevision(db, viewer, revisionId);
   const hash = await currentContentHash(db, revisionId);
-  const row = await rowByHash(db, hash);
+  const row = await rowByHash(db, detail.project.id, hash);
   if (!row || row.state !== "done" || !row.report || !row.finishedAt)
     throw new HttpError(
       "not_found",
@@ -184,7 +199,8 @@ export async function markRunning(db: Db, hash: string): Promise<boolean> {
       ),
     )
     .returning({ id: analysisReports.id });
-  return rows.length === 1;
+  // One row per project holding this content: the job computes once for all that are waiting.
+  return rows.length > 0;
 }
 
 /** Worker: progress of a running analysis. */
@@ -215,7 +231,8 @@ export async function markDone(
       finishedAt: new Date(),
       durationMs: Math.round(performance.now() - startedMs),
     })
-    .where(eq(analysisReports.contentHash, hash));
+    // A project's finished report keeps its own times.
+    .where(and(eq(analysisReports.contentHash, hash), sql`${analysisReports.state} <> 'done'`));
 }
 
 /** Worker: record why an analysis failed (never overwrites a stored report). */
@@ -238,7 +255,12 @@ export async function markFailed(
 export async function analyseInProcess(db: Db, revisionId: number, softwareVersion: string): Promise<string> {
   const input = await loadRevisionForJob(db, revisionId);
   if (!input) throw new Error(`no revision ${revisionId}`);
-  await db.insert(analysisReports).values({ contentHash: input.hash, revisionId }).onConflictDoNothing();
+  const projectId = await projectOfRevision(db, revisionId);
+  if (projectId === undefined) throw new Error(`no revision ${revisionId}`);
+  await db
+    .insert(analysisReports)
+    .values({ projectId, contentHash: input.hash, revisionId })
+    .onConflictDoNothing();
   // markRunning refuses a hash that is already done, so a second call stores nothing new.
   if (await markRunning(db, input.hash)) {
     const started = performance.now();

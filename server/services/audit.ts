@@ -87,8 +87,8 @@ export async function recordAudit(tx: Executor, event: AuditInput): Promise<numb
 /** The WHERE clause for a filter; an action ending in "." matches the whole area. */
 export function auditWhere(f: AuditFilter): SQL | undefined {
   const parts: SQL[] = [];
-  if (f.projectId !== undefined) parts.push(eq(auditEvents.projectId, f.projectId));
-  if (f.userId !== undefined) parts.push(eq(auditEvents.actorUserId, f.userId));
+  if (f.project !== undefined) parts.push(eq(auditEvents.projectId, f.project));
+  if (f.user !== undefined) parts.push(eq(auditEvents.actorUserId, f.user));
   if (f.action !== undefined) {
     // The filter schema allows only [a-z0-9.-], so no LIKE metacharacters can reach the pattern.
     parts.push(

@@ -18,6 +18,7 @@ import {
   users,
 } from "../db/schema";
 import { HttpError, validationFailed } from "../http/errors";
+import { recordContentAuthors } from "./authorship";
 import { MaterializeError, materialize, uploadIdsOf, type MaterializedTable } from "./materialize";
 import type { Viewer } from "./projects";
 import { recordAudit } from "./audit";
@@ -206,7 +207,7 @@ export async function createDesign(
   await projectAccess(db, viewer, projectId);
   const tables = await tablesFor(db, projectId, input.content);
   const nameTaken = () =>
-    new HttpError("conflict", `A design named "${input.name}" already exists in this project`, [
+    new HttpError("conflict", `A design named "${input.name}" already exists in this project (in any case)`, [
       { path: ["name"], message: "this name is taken in the project" },
     ]);
   const ids = await db.transaction(async (tx) => {
@@ -219,7 +220,8 @@ export async function createDesign(
         description: input.description,
         ownerId: viewer.id,
       })
-      .onConflictDoNothing({ target: [designs.projectId, designs.name] })
+      // The only unique key besides the id: (project, lower(name)).
+      .onConflictDoNothing()
       .returning({ id: designs.id });
     if (!design) throw nameTaken();
     const [revision] = await tx
@@ -228,6 +230,7 @@ export async function createDesign(
       .returning({ id: revisions.id });
     if (!revision) throw new Error("revision insert returned no row");
     await insertTables(tx, revision.id, tables);
+    await recordContentAuthors(tx, revision.id, viewer.id, input.content);
     await recordAudit(tx, {
       action: "design.create",
       projectId,

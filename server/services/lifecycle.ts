@@ -29,6 +29,8 @@ export interface LifecycleRule {
   roles: readonly Role[];
   /** Separation of duties: the user who submitted may not do this. */
   notSubmitter: boolean;
+  /** Separation of duties: nobody who wrote any of the revision's content may do this. */
+  notAuthor: boolean;
   /** How the action is named in messages. */
   words: string;
 }
@@ -42,6 +44,7 @@ export const LIFECYCLE: Readonly<Record<LifecycleAction, LifecycleRule>> = {
     to: "in_review",
     roles: ["author"],
     notSubmitter: false,
+    notAuthor: false,
     words: "submit it for review",
   },
   approve: {
@@ -49,6 +52,7 @@ export const LIFECYCLE: Readonly<Record<LifecycleAction, LifecycleRule>> = {
     to: "approved",
     roles: ["reviewer"],
     notSubmitter: true,
+    notAuthor: true,
     words: "approve it",
   },
   request_changes: {
@@ -56,6 +60,7 @@ export const LIFECYCLE: Readonly<Record<LifecycleAction, LifecycleRule>> = {
     to: "changes_requested",
     roles: ["reviewer"],
     notSubmitter: true,
+    notAuthor: true,
     words: "request changes",
   },
   release: {
@@ -63,6 +68,7 @@ export const LIFECYCLE: Readonly<Record<LifecycleAction, LifecycleRule>> = {
     to: "released",
     roles: ["author"],
     notSubmitter: false,
+    notAuthor: false,
     words: "release it",
   },
   // The revision stays `released`; the release row gets its withdrawal fields (a flag, not a state).
@@ -71,6 +77,7 @@ export const LIFECYCLE: Readonly<Record<LifecycleAction, LifecycleRule>> = {
     to: null,
     roles: ["author", "admin"],
     notSubmitter: false,
+    notAuthor: false,
     words: "withdraw its release",
   },
   comment: {
@@ -78,6 +85,7 @@ export const LIFECYCLE: Readonly<Record<LifecycleAction, LifecycleRule>> = {
     to: null,
     roles: ["author", "reviewer", "admin"],
     notSubmitter: false,
+    notAuthor: false,
     words: "comment",
   },
 };
@@ -96,9 +104,14 @@ export interface LifecycleSubject {
   number: number;
   state: RevisionState;
   submittedById: number | null;
+  /** Everyone who wrote any of its content (server/services/authorship.ts). */
+  authorIds: readonly number[];
 }
 
-/** Why an action is refused, or null when it is allowed; the order is role (403), state (409), self-review (403). */
+/**
+ * Why an action is refused, or null when it is allowed; the order is role (403), state (409), self-review (403:
+ * the submitter, then any content author).
+ */
 export function refusal(
   action: LifecycleAction,
   subject: LifecycleSubject,
@@ -126,6 +139,11 @@ export function refusal(
     return new HttpError("forbidden", "You submitted this revision, so someone else must review it", {
       action,
       reason: "self_review",
+    });
+  if (rule.notAuthor && subject.authorIds.includes(viewer.id))
+    return new HttpError("forbidden", "You wrote content of this revision, so someone else must review it", {
+      action,
+      reason: "content_author",
     });
   return null;
 }

@@ -93,9 +93,20 @@ export async function createProject(db: Db, input: CreateProjectInput): Promise<
     const [inserted] = await tx
       .insert(projects)
       .values(input)
-      .onConflictDoNothing({ target: projects.slug })
+      // Unique keys: the slug and lower(name); a conflict on either inserts nothing.
+      .onConflictDoNothing()
       .returning({ id: projects.id });
-    if (!inserted) throw validationFailed([{ path: ["slug"], message: "this slug is taken" }]);
+    if (!inserted) {
+      const [slugTaken] = await tx
+        .select({ id: projects.id })
+        .from(projects)
+        .where(eq(projects.slug, input.slug));
+      throw validationFailed([
+        slugTaken
+          ? { path: ["slug"], message: "this slug is taken" }
+          : { path: ["name"], message: "a project with this name exists (names are compared in any case)" },
+      ]);
+    }
     await recordAudit(tx, {
       action: "project.create",
       projectId: inserted.id,

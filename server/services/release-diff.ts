@@ -163,7 +163,13 @@ async function load(db: Db, release: Release): Promise<DiffInput> {
   const [report] = await db
     .select({ report: analysisReports.report })
     .from(analysisReports)
-    .where(and(eq(analysisReports.contentHash, release.contentHash), eq(analysisReports.state, "done")));
+    .where(
+      and(
+        eq(analysisReports.projectId, release.projectId),
+        eq(analysisReports.contentHash, release.contentHash),
+        eq(analysisReports.state, "done"),
+      ),
+    );
   return { release, tables, report: (report?.report as AnalysisReport | null | undefined) ?? null };
 }
 

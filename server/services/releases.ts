@@ -287,7 +287,7 @@ export async function createRelease(
         .where(and(eq(reviews.revisionId, r.id), eq(reviews.decision, "approved")))
         .orderBy(desc(reviews.at), desc(reviews.id))
         .limit(1);
-      const report = r.contentHash ? await reportSummary(tx, r.contentHash) : null;
+      const report = r.contentHash ? await reportSummary(tx, r.project.id, r.contentHash) : null;
       if (
         !approval ||
         approval.contentHash !== r.contentHash ||

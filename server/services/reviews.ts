@@ -33,6 +33,7 @@ import { env } from "../env";
 import { HttpError } from "../http/errors";
 import { notify } from "../mail/notifications";
 import { recordAudit } from "./audit";
+import { contentAuthorIds, contentAuthorsOf } from "./authorship";
 import { canonicalJson } from "./content-hash";
 import { projectAccess, type ProjectRef, type Tx } from "./designs";
 import { allowedActions, authorize, type LifecycleSubject } from "./lifecycle";
@@ -76,6 +77,7 @@ export async function revisionFacts(
   const [row] = lock ? await q.for("update", { of: revisions }) : await q;
   if (!row) throw new HttpError("not_found", "No such revision");
   const project = await projectAccess(db, viewer, row.projectId, "No such revision");
+  const authorIds = await contentAuthorIds(db, row.id);
   return {
     id: row.id,
     designId: row.designId,
@@ -85,6 +87,7 @@ export async function revisionFacts(
     createdById: row.createdById,
     submittedById: row.submittedById,
     submittedAt: row.submittedAt,
+    authorIds,
     design: { id: row.designId, name: row.designName, kind: row.designKind },
     project,
   };
@@ -103,8 +106,12 @@ interface StoredReport {
   limits?: { name: string; limit: number; value: number | null; pass: boolean }[];
 }
 
-/** The finished report of a content hash as a summary, or null while there is none. */
-export async function reportSummary(db: Db | Tx, contentHash: string): Promise<ReportSummary | null> {
+/** The project's finished report of a content hash as a summary, or null while there is none. */
+export async function reportSummary(
+  db: Db | Tx,
+  projectId: number,
+  contentHash: string,
+): Promise<ReportSummary | null> {
   const [row] = await db
     .select({
       report: analysisReports.report,
@@ -112,7 +119,7 @@ export async function reportSummary(db: Db | Tx, contentHash: string): Promise<R
       finishedAt: analysisReports.finishedAt,
     })
     .from(analysisReports)
-    .where(eq(analysisReports.contentHash, contentHash));
+    .where(and(eq(analysisReports.projectId, projectId), eq(analysisReports.contentHash, contentHash)));
   if (!row || row.state !== "done" || row.report === null) return null;
   const r = row.report as StoredReport;
   return {
@@ -148,7 +155,7 @@ export function mailBase(r: RevisionFacts, actorUserId: number) {
  */
 export async function submitInTx(tx: Tx, viewer: Viewer, r: RevisionFacts, hash: string): Promise<void> {
   const next = authorize("submit", r, viewer);
-  const report = await reportSummary(tx, hash);
+  const report = await reportSummary(tx, r.project.id, hash);
   if (!report)
     throw new HttpError(
       "conflict",
@@ -191,7 +198,7 @@ export async function decide(
     const action = input.decision === "approved" ? "approve" : "request_changes";
     const next = authorize(action, r, viewer);
     if (!r.contentHash) throw new Error(`revision ${r.id} is ${r.state} without a content hash`);
-    const report = await reportSummary(tx, r.contentHash);
+    const report = await reportSummary(tx, r.project.id, r.contentHash);
     if (!report)
       throw new HttpError(
         "conflict",
@@ -349,14 +356,14 @@ export async function reviewPage(db: Db, viewer: Viewer, revisionId: number): Pr
     },
     design: r.design,
     project: r.project,
-    report: r.contentHash ? await reportSummary(db, r.contentHash) : null,
+    report: r.contentHash ? await reportSummary(db, r.project.id, r.contentHash) : null,
     previousRelease: prev
       ? {
           releaseId: prev.id,
           version: prev.version,
           revisionId: prev.revisionId,
           revisionNumber: prev.number,
-          report: await reportSummary(db, prev.hash),
+          report: await reportSummary(db, r.project.id, prev.hash),
         }
       : null,
     comments: await commentRows(db, eq(reviewComments.revisionId, r.id)),
@@ -402,19 +409,25 @@ export async function reviewQueue(db: Db, viewer: Viewer): Promise<QueueItem[]> 
     )
     .orderBy(asc(revisions.submittedAt), asc(revisions.id));
   const hashes = rows.map((r) => r.contentHash).filter((h): h is string => h !== null);
+  // Keyed by project and hash: a project sees only its own reports.
   const summaries = new Map<string, ReportSummary>();
+  const keyOf = (projectId: number, hash: string) => `${projectId}:${hash}`;
   if (hashes.length > 0) {
     const done = await db
-      .select({ hash: analysisReports.contentHash })
+      .select({ projectId: analysisReports.projectId, hash: analysisReports.contentHash })
       .from(analysisReports)
       .where(and(inArray(analysisReports.contentHash, hashes), sql`${analysisReports.state} = 'done'`));
     for (const d of done) {
-      const s = await reportSummary(db, d.hash);
-      if (s) summaries.set(d.hash, s);
+      const s = await reportSummary(db, d.projectId, d.hash);
+      if (s) summaries.set(keyOf(d.projectId, d.hash), s);
     }
   }
+  const authors = await contentAuthorsOf(
+    db,
+    rows.map((r) => r.revisionId),
+  );
   return rows.map((r) => {
-    const s = r.contentHash ? (summaries.get(r.contentHash) ?? null) : null;
+    const s = r.contentHash ? (summaries.get(keyOf(r.projectId, r.contentHash)) ?? null) : null;
     return {
       revisionId: r.revisionId,
       revisionNumber: r.revisionNumber,
@@ -426,7 +439,7 @@ export async function reviewQueue(db: Db, viewer: Viewer): Promise<QueueItem[]> 
       projectName: r.projectName,
       submittedBy: person(r.submittedById ?? 0, r.submittedByName),
       submittedAt: (r.submittedAt ?? new Date(0)).toISOString(),
-      canDecide: r.submittedById !== viewer.id,
+      canDecide: r.submittedById !== viewer.id && !authors.get(r.revisionId)?.has(viewer.id),
       pass: s?.pass ?? null,
       failing: failingOf(s),
     };

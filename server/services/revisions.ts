@@ -13,6 +13,7 @@ import { canAuthor, insertTables, revisionSummaries, tablesFor, visibleDesign, t
 import { uploadIdsOf } from "./materialize";
 import type { Viewer } from "./projects";
 import { recordAudit } from "./audit";
+import { inheritContentAuthors, recordContentAuthors } from "./authorship";
 import { STATE_WORDS } from "./lifecycle";
 import { revisionFacts, submitInTx } from "./reviews";
 import { uploadsByIds } from "./uploads";
@@ -137,6 +138,8 @@ export async function createRevision(db: Db, viewer: Viewer, designId: number): 
         insert into ${coefficientTables} (revision_id, role, position, complex, length, sample_rate_hz, source, values, values_sha256)
         select ${created.id}, role, position, complex, length, sample_rate_hz, source, values, values_sha256
         from ${coefficientTables} where revision_id = ${latest.id}`);
+      await inheritContentAuthors(tx, latest.id, created.id);
+      await recordContentAuthors(tx, created.id, viewer.id, latest.content as RevisionContent);
       await tx.update(designs).set({ updatedAt: new Date() }).where(eq(designs.id, designId));
       await recordAudit(tx, {
         action: "revision.create",
@@ -173,6 +176,7 @@ export async function updateRevision(
     await tx.update(revisions).set({ content }).where(eq(revisions.id, id));
     await tx.delete(coefficientTables).where(eq(coefficientTables.revisionId, id));
     await insertTables(tx, id, tables);
+    await recordContentAuthors(tx, id, viewer.id, content);
     await tx.update(designs).set({ updatedAt: new Date() }).where(eq(designs.id, design.id));
     await recordAudit(tx, {
       action: "revision.update",

@@ -45,7 +45,7 @@ function toUpload(r: UploadRow): Upload {
 
 /** Keep only the last path segment and printable characters of a client-supplied file name. */
 export function cleanFileName(name: string): string {
-  const base = name.split(/[\\/]/).pop() ?? "";
+  const base = name.normalize("NFC").split(/[\\/]/).pop() ?? "";
   // eslint-disable-next-line no-control-regex
   const printable = base.replace(/[\u0000-\u001f\u007f]/g, "").trim();
   return (printable || "upload").slice(0, 255);

@@ -1,9 +1,9 @@
-import { and, asc, eq, inArray, sql } from "drizzle-orm";
-import type { Role, SessionUser } from "../../shared/schemas/auth";
+import { and, asc, eq, inArray, isNull, ne, sql } from "drizzle-orm";
+import { passwordProblem, type Role, type SessionUser } from "../../shared/schemas/auth";
 import type { CreateUserInput, UpdateUserInput, User } from "../../shared/schemas/users";
 import { generateTemporaryPassword, hashPassword, verifyPassword } from "../auth/passwords";
 import type { Db } from "../db/client";
-import { session, userRoles, users } from "../db/schema";
+import { apiTokens, session, userRoles, users } from "../db/schema";
 import { HttpError, validationFailed } from "../http/errors";
 import { recordAudit, type Executor } from "./audit";
 
@@ -88,22 +88,60 @@ export async function touchSignIn(db: Executor, userId: number): Promise<void> {
   await db.update(users).set({ lastSignInAt: new Date() }).where(eq(users.id, userId));
 }
 
-/** Change one's own password after checking the current one. */
-export async function changePassword(db: Db, userId: number, current: string, next: string): Promise<void> {
+/** What else a password change ends. */
+export interface PasswordChangeOptions {
+  /** The session that made the change stays signed in; every other session of the user ends. */
+  keepSessionId?: string;
+  /** Also revoke every live API token of the user. */
+  revokeTokens?: boolean;
+}
+
+/**
+ * Change one's own password after checking the current one; ends the user's other sessions (and, when asked,
+ * revokes their API tokens) in the same transaction, so a stolen session or token does not outlive it.
+ */
+export async function changePassword(
+  db: Db,
+  userId: number,
+  current: string,
+  next: string,
+  options: PasswordChangeOptions = {},
+): Promise<{ endedSessions: number; revokedTokens: number }> {
   const user = await findUserById(db, userId);
   if (!user) throw new HttpError("unauthenticated", "Please sign in");
   if (!(await verifyPassword(current, user.passwordHash))) {
     throw validationFailed([{ path: ["currentPassword"], message: "the current password is not correct" }]);
   }
+  const problem = passwordProblem(next, user.username);
+  if (problem) throw validationFailed([{ path: ["newPassword"], message: problem }]);
   const passwordHash = await hashPassword(next);
-  await db.transaction(async (tx) => {
+  return db.transaction(async (tx) => {
     await tx.update(users).set({ passwordHash, mustChangePassword: false }).where(eq(users.id, userId));
+    const ended = await tx
+      .delete(session)
+      .where(
+        options.keepSessionId === undefined
+          ? eq(session.userId, userId)
+          : and(eq(session.userId, userId), ne(session.sid, options.keepSessionId)),
+      )
+      .returning({ sid: session.sid });
+    const revoked = options.revokeTokens
+      ? await tx
+          .update(apiTokens)
+          .set({ revokedAt: new Date() })
+          .where(and(eq(apiTokens.userId, userId), isNull(apiTokens.revokedAt)))
+          .returning({ id: apiTokens.id })
+      : [];
     await recordAudit(tx, {
       action: "user.password-change",
       subjectType: "user",
       subjectId: userId,
-      summary: `${user.username} changed their password`,
+      summary: `${user.username} changed their password (${ended.length} other session(s) ended${
+        options.revokeTokens ? `, ${revoked.length} API token(s) revoked` : ""
+      })`,
+      details: { endedSessions: ended.length, revokedTokens: revoked.length },
     });
+    return { endedSessions: ended.length, revokedTokens: revoked.length };
   });
 }
 
@@ -118,6 +156,10 @@ export async function createUser(
   db: Db,
   input: CreateUserInput,
 ): Promise<{ user: User; temporaryPassword: string }> {
+  if (input.temporaryPassword !== undefined) {
+    const problem = passwordProblem(input.temporaryPassword, input.username);
+    if (problem) throw validationFailed([{ path: ["temporaryPassword"], message: problem }]);
+  }
   const temporaryPassword = input.temporaryPassword ?? generateTemporaryPassword();
   const passwordHash = await hashPassword(temporaryPassword);
   const id = await db.transaction(async (tx) => {
@@ -166,7 +208,7 @@ function describeUserChange(u: UserRecord, input: UpdateUserInput): string {
   return `Updated user ${u.username}: ${parts.length > 0 ? parts.join("; ") : "no visible change"}`;
 }
 
-/** Update name, roles or active flag; an admin cannot deactivate or de-admin themself. */
+/** Update name, roles or active flag; an admin cannot deactivate, de-admin or grant roles to themself. */
 export async function updateUser(db: Db, actorId: number, id: number, input: UpdateUserInput): Promise<User> {
   const existing = await findUserById(db, id);
   if (!existing) throw new HttpError("not_found", "No such user");
@@ -175,6 +217,15 @@ export async function updateUser(db: Db, actorId: number, id: number, input: Upd
   }
   if (actorId === id && input.roles && !input.roles.includes("admin")) {
     throw new HttpError("conflict", "You cannot remove your own admin role");
+  }
+  const granted = (input.roles ?? []).filter((r) => !existing.roles.includes(r));
+  if (actorId === id && granted.length > 0) {
+    // Separation of duties: a role one holds is granted by someone else.
+    throw new HttpError(
+      "forbidden",
+      `You cannot grant yourself a role (${granted.join(", ")}): another admin must do it`,
+      { reason: "self_grant", roles: granted },
+    );
   }
   await db.transaction(async (tx) => {
     const set: Partial<typeof users.$inferInsert> = {};

@@ -38,10 +38,13 @@ const optionalInstant = z.preprocess(
   z.iso.datetime({ offset: true }).optional(),
 );
 
-/** Filters of the audit page and the CSV export (query-string form; empty strings mean "any"). */
-export const AuditFilterSchema = z.object({
-  projectId: optionalId,
-  userId: optionalId,
+/**
+ * Filters of the audit page and the CSV export (query-string form; empty strings mean "any"): `project` and
+ * `user` are ids. Strict: an unknown parameter is a 400, not silently ignored.
+ */
+export const AuditFilterSchema = z.strictObject({
+  project: optionalId,
+  user: optionalId,
   /** An exact action, or a prefix ending in `.` (e.g. `auth.`) for a whole area. */
   action: z.preprocess(
     (v) => (v === "" ? undefined : v),

@@ -5,6 +5,7 @@
  * content + tables into the DSP core's AnalysisSpec.
  */
 import { z } from "zod";
+import { nameSchema } from "./names";
 import {
   AcceptanceLimitsSchema,
   FirSourceSchema,
@@ -93,7 +94,8 @@ export const RevisionContentSchema = z.discriminatedUnion("kind", [
 export type RevisionContent = z.infer<typeof RevisionContentSchema>;
 export type RevisionContentInput = z.input<typeof RevisionContentSchema>;
 
-export const DesignNameSchema = z.string().trim().min(1, "enter a name").max(120, "at most 120 characters");
+/** A design name: normalised (NFC, single spaces), no invisible characters; unique per project in any case. */
+export const DesignNameSchema = nameSchema(120);
 
 /** POST /api/projects/:projectId/designs */
 export const CreateDesignSchema = z.object({

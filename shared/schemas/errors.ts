@@ -22,5 +22,9 @@ export const ERROR_CODES = [
   "internal",
   /** A stored release bundle no longer matches its SHA-256: refused, never served. */
   "bundle_corrupt",
+  /** A state-changing request from another origin (CSRF guard): 403. */
+  "cross_site",
+  /** Signed in on a temporary password: only the password change (and sign-out, who-am-I) until done. */
+  "password_change_required",
 ] as const;
 export type ErrorCode = (typeof ERROR_CODES)[number];

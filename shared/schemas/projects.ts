@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { nameSchema } from "./names";
 import { RoleSchema, SessionUserSchema } from "./auth";
 import { HealthSchema } from "./health";
 import { HomeWorkSchema } from "./reviews";
@@ -22,7 +23,7 @@ export const ProjectSlugSchema = z
 
 export const CreateProjectSchema = z.object({
   slug: ProjectSlugSchema,
-  name: z.string().trim().min(1, "enter a name").max(120),
+  name: nameSchema(120),
   description: z.string().trim().max(2000).default(""),
 });
 export type CreateProjectInput = z.infer<typeof CreateProjectSchema>;

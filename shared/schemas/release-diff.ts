@@ -5,7 +5,7 @@
 import { z } from "zod";
 
 /** GET /api/releases/:id/diff?against=:otherId */
-export const ReleaseDiffQuerySchema = z.object({
+export const ReleaseDiffQuerySchema = z.strictObject({
   against: z.coerce.number().int().positive("must be a release id"),
 });
 

@@ -80,7 +80,7 @@ export const RELEASE_STATUSES = ["active", "withdrawn"] as const;
 export const ReleaseStatusSchema = z.enum(RELEASE_STATUSES);
 
 /** Query of GET /api/releases (all optional; always limited to my projects). */
-export const ReleaseListQuerySchema = z.object({
+export const ReleaseListQuerySchema = z.strictObject({
   project: z.string().trim().min(1).optional(),
   design: z.coerce.number().int().positive().optional(),
   status: ReleaseStatusSchema.optional(),

@@ -1,5 +1,5 @@
 import { Fragment } from "react";
-import { Link, NavLink, Outlet, useOutletContext } from "react-router-dom";
+import { Link, Navigate, NavLink, Outlet, useLocation, useOutletContext } from "react-router-dom";
 import type { SessionUser } from "@shared/schemas/auth";
 import { Wordmark } from "@/components/brand/mark";
 import { Skeleton } from "@/components/ui/states";
@@ -65,6 +65,7 @@ function MustChangeBanner() {
 /** The signed-in frame: navigation by role, user menu, shortcuts, and the page. */
 export function Shell() {
   const me = useMe();
+  const location = useLocation();
   useGlobalShortcuts();
   if (!me.data) {
     // 401 is handled by the QueryCache (redirect to sign-in); anything else shows a quiet frame while loading.
@@ -80,6 +81,8 @@ export function Shell() {
     );
   }
   const user = me.data;
+  // The server answers nothing else until a temporary password is changed: go where that is done.
+  if (user.mustChangePassword && location.pathname !== "/account") return <Navigate to="/account" replace />;
   return (
     <div className="flex min-h-screen">
       <a

@@ -14,13 +14,13 @@ describe("POST /api/account/password", () => {
     expect(err.details).toEqual([{ path: ["currentPassword"], message: expect.any(String) }]);
   });
 
-  it("refuses a new password shorter than 10 characters, naming the field", async () => {
+  it("refuses a new password shorter than 12 characters, naming the field", async () => {
     const agent = await signedIn(t.app, "author");
     const res = await agent
       .post("/api/account/password")
       .send({ currentPassword: "tapwright-author", newPassword: "short" });
     const err = expectError(res, 400, "validation_failed");
-    expect(err.details).toEqual([{ path: ["newPassword"], message: "at least 10 characters" }]);
+    expect(err.details).toEqual([{ path: ["newPassword"], message: "at least 12 characters" }]);
   });
 
   it("refuses a new password equal to the current one", async () => {

@@ -107,7 +107,7 @@ describe("audit rows for sign-in and user changes", () => {
       .send({ roles: ["author", "reviewer"], active: false });
     expect(patched.status).toBe(200);
 
-    const rows = await events(`action=user.&userId=${adminId}`);
+    const rows = await events(`action=user.&user=${adminId}`);
     const about = rows.filter((e) => e.subjectId === String(id));
     expect(about.map((e) => e.action)).toEqual(["user.update", "user.create"]);
     expect(about[0]?.summary).toBe("Updated user gale: roles author → author, reviewer; deactivated");
@@ -135,7 +135,7 @@ describe("audit rows for sign-in and user changes", () => {
       .put(`/api/projects/${pid}/members`)
       .send({ userIds: [await userId("author")] });
     expect(members.status).toBe(200);
-    const rows = await events(`projectId=${pid}`);
+    const rows = await events(`project=${pid}`);
     expect(rows.map((e) => e.action)).toEqual(["project.members", "project.create"]);
     expect(rows.every((e) => e.projectSlug === "pier-radar")).toBe(true);
   });

@@ -8,7 +8,7 @@ const t = useApiTestDatabase();
 const BAD = "User name or password is incorrect";
 
 describe("POST /api/auth/sign-in", () => {
-  it("signs a demo user in and sets an HttpOnly, SameSite=Lax session cookie", async () => {
+  it("signs a demo user in and sets an HttpOnly, SameSite=Strict session cookie", async () => {
     const res = await request(t.app)
       .post("/api/auth/sign-in")
       .send({ username: "author", password: "tapwright-author" });
@@ -23,7 +23,7 @@ describe("POST /api/auth/sign-in", () => {
     expect(res.body.user).not.toHaveProperty("passwordHash");
     const cookie = sessionCookie(res);
     expect(cookie).toMatch(/HttpOnly/i);
-    expect(cookie).toMatch(/SameSite=Lax/i);
+    expect(cookie).toMatch(/SameSite=Strict/i);
   });
 
   it("accepts the user name in another case and with spaces", async () => {

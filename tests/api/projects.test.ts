@@ -92,6 +92,11 @@ describe("project membership", () => {
     expect(ProjectDetailSchema.parse(set.body).members.map((m) => m.username)).toEqual(["xband"]);
 
     const member = await signedIn(t.app, "xband", made.body.temporaryPassword as string);
+    // A temporary password allows nothing but its change.
+    const changed = await member
+      .post("/api/account/password")
+      .send({ currentPassword: made.body.temporaryPassword, newPassword: "xband-chosen-password" });
+    expect(changed.status).toBe(204);
     expect((await member.get(`/api/projects/${project.id}`)).status).toBe(200);
     expectError(await author.get(`/api/projects/${project.id}`), 404, "not_found");
 

@@ -1,4 +1,4 @@
-// Admin creates a user; the new user signs in with the one-time temporary password, is asked to change
+// Admin creates a user; the new user signs in with the one-time temporary password, is sent to change
 // it, changes it; deactivation ends their session at once.
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -41,16 +41,18 @@ describe("user administration", () => {
     await signIn(newcomer.page, username, temporary, "Mira Solberg");
     const banner = newcomer.page.getByText("You are signed in with a temporary password.");
     await banner.waitFor();
-    // Not yet a member of any project: the empty state says what to do next.
-    await newcomer.page.getByText("Ask an admin to add you to a project.").waitFor();
-    await screenshot(newcomer.page, "home-new-user");
-    await newcomer.page.getByRole("link", { name: "Change it now" }).click();
+    // Nothing else answers until the temporary password is changed: the app goes to the account page.
+    await newcomer.page.waitForURL(/\/account$/);
     await newcomer.page.getByLabel("Current password").fill(temporary);
     await newcomer.page.getByLabel("New password").fill("a-new-password-for-mira");
     await newcomer.page.getByRole("button", { name: "Change password" }).click();
     await newcomer.page.getByRole("status").filter({ hasText: "Password changed" }).waitFor();
     await banner.waitFor({ state: "detached" });
     await screenshot(newcomer.page, "account-changed");
+    // Not yet a member of any project: the empty state says what to do next.
+    await newcomer.page.getByRole("link", { name: "Tapwright home" }).click();
+    await newcomer.page.getByText("Ask an admin to add you to a project.").waitFor();
+    await screenshot(newcomer.page, "home-new-user");
 
     await admin.page.reload();
     await admin.page.getByRole("button", { name: `Deactivate ${username}` }).click();

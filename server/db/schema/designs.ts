@@ -9,6 +9,7 @@ import {
   jsonb,
   pgEnum,
   pgTable,
+  primaryKey,
   text,
   timestamp,
   unique,
@@ -46,7 +47,8 @@ export const designs = pgTable(
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [unique("designs_project_name_unique").on(t.projectId, t.name)],
+  // Names are stored normalised (shared/schemas/names.ts); case never makes two designs.
+  (t) => [uniqueIndex("designs_project_name_ci_unique").on(t.projectId, sql`lower(${t.name})`)],
 );
 
 /** r1, r2, … of a design; content is frozen (by a trigger) once the revision leaves `draft`. */
@@ -77,6 +79,25 @@ export const revisions = pgTable(
       .where(sql`${t.state} = 'draft'`),
     check("revisions_hash_after_draft", sql`${t.state} = 'draft' or ${t.contentHash} is not null`),
   ],
+);
+
+/**
+ * Everyone who wrote any of a revision's content: its creator, every editor of the draft, the uploaders of the
+ * files it uses, and (for a revision started from another) the authors of the content it carried over. None of
+ * them may approve it (server/services/lifecycle.ts).
+ */
+export const revisionAuthors = pgTable(
+  "revision_authors",
+  {
+    revisionId: integer("revision_id")
+      .notNull()
+      .references(() => revisions.id, { onDelete: "cascade" }),
+    userId: integer("user_id")
+      .notNull()
+      .references(() => users.id),
+    firstAt: timestamp("first_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.revisionId, t.userId] })],
 );
 
 /** The materialized tables of a revision; values = interleaved little-endian float64 [re0, im0, re1, im1, …]. */

@@ -53,3 +53,14 @@ export const session = pgTable(
   },
   (t) => [index("IDX_session_expire").on(t.expire), index("session_user_id_idx").on(t.userId)],
 );
+
+/**
+ * Consecutive failed sign-ins per user name (known or not, so a lock says nothing about whether an account
+ * exists); a successful sign-in deletes the row. server/auth/backoff.ts reads it.
+ */
+export const signInFailures = pgTable("sign_in_failures", {
+  username: varchar("username", { length: 200 }).primaryKey(),
+  failures: integer("failures").notNull().default(0),
+  lastAt: timestamp("last_at", { withTimezone: true }).notNull().defaultNow(),
+  lockedUntil: timestamp("locked_until", { withTimezone: true }),
+});

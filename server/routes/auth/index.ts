@@ -2,6 +2,7 @@ import type { NextFunction, Request, Response } from "express";
 import { Router } from "express";
 import { ipKeyGenerator, rateLimit } from "express-rate-limit";
 import { SignInSchema, type SessionUser } from "../../../shared/schemas/auth";
+import { clearSignInFailures, lockedForSeconds, recordSignInFailure } from "../../auth/backoff";
 import type { SignInFailure } from "../../auth/passport";
 import { currentUser } from "../../auth/guards";
 import { HttpError, parseInput } from "../../http/errors";
@@ -63,15 +64,40 @@ export function authRoutes(ctx: RouteContext): Router {
     handler: (_req, _res, next) =>
       next(new HttpError("rate_limited", "Too many sign-in attempts; wait a minute and try again")),
   });
+  // Per address over every user name: spraying one password over many accounts is limited too.
+  const addressLimiter = rateLimit({
+    windowMs: 60_000,
+    limit: ctx.signInLimitPerAddressPerMinute,
+    standardHeaders: false,
+    legacyHeaders: false,
+    keyGenerator: (req) => ipKeyGenerator(req.ip ?? ""),
+    handler: (_req, _res, next) =>
+      next(
+        new HttpError(
+          "rate_limited",
+          "Too many sign-in attempts from this address; wait a minute and try again",
+        ),
+      ),
+  });
 
-  r.post("/sign-in", limiter, async (req, res, next) => {
+  r.post("/sign-in", addressLimiter, limiter, async (req, res, next) => {
     const input = parseInput(SignInSchema, req.body);
     req.body = input;
+    const wait = await lockedForSeconds(ctx.db, input.username);
+    if (wait > 0) {
+      res.setHeader("Retry-After", String(wait));
+      throw new HttpError(
+        "rate_limited",
+        `Too many failed sign-ins for this user name; try again in ${wait} s`,
+        { retryAfterSeconds: wait },
+      );
+    }
     let user: SessionUser;
     try {
       user = await authenticate(ctx, req, res, next);
     } catch (err) {
       if (err instanceof HttpError) {
+        if (err.code === "unauthenticated") await recordSignInFailure(ctx.db, input.username);
         // Nothing changes on a refused sign-in, so the row stands alone (no transaction to join).
         await recordAudit(ctx.db, {
           actor: actorFrom(req),
@@ -86,6 +112,7 @@ export function authRoutes(ctx: RouteContext): Router {
       }
       throw err;
     }
+    await clearSignInFailures(ctx.db, input.username);
     await logIn(req, user);
     await ctx.db.transaction(async (tx) => {
       await touchSignIn(tx, user.id);
@@ -112,7 +139,7 @@ export function authRoutes(ctx: RouteContext): Router {
       await logOut(req);
     }
     if (req.session) await destroySession(req);
-    res.clearCookie("tapwright.sid", { path: "/" });
+    res.clearCookie("tapwright.sid", { path: "/", httpOnly: true, sameSite: "strict" });
     res.status(204).end();
   });
 

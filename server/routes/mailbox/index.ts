@@ -8,7 +8,7 @@ import { runningSinkPort } from "../../mail/runtime";
 import type { RouteContext } from "../context";
 import { IdParamSchema } from "../params";
 
-const ListQuerySchema = z.object({
+const ListQuerySchema = z.strictObject({
   before: z.coerce.number().int().positive().optional(),
   limit: z.coerce.number().int().min(1).max(200).default(50),
 });

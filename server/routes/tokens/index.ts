@@ -8,7 +8,7 @@ import { createToken, listTokens, revokeToken } from "../../services/tokens";
 import type { RouteContext } from "../context";
 import { IdParamSchema } from "../params";
 
-const ListQuerySchema = z.object({ all: z.enum(["0", "1"]).optional() });
+const ListQuerySchema = z.strictObject({ all: z.enum(["0", "1"]).optional() });
 
 /** /api/tokens: my API tokens (create shows the secret once; revoke). Session only, never by token. */
 export function tokenRoutes(ctx: RouteContext): Router {

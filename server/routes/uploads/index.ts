@@ -2,7 +2,8 @@ import { Router, type RequestHandler } from "express";
 import multer from "multer";
 import { MAX_UPLOAD_BYTES } from "../../../shared/coefficients/parse";
 import { currentUser, requireRole, requireUser } from "../../auth/guards";
-import { errorBody, HttpError, parseInput } from "../../http/errors";
+import { errorBody, HttpError, parseInput, validationFailed } from "../../http/errors";
+import { hasNul } from "../../http/nul";
 import { projectAccess } from "../../services/designs";
 import { createUpload, getUpload, getUploadRaw } from "../../services/uploads";
 import type { RouteContext } from "../context";
@@ -13,6 +14,8 @@ import { IdParamSchema } from "../params";
 const receive = multer({
   storage: multer.memoryStorage(),
   limits: { fileSize: MAX_UPLOAD_BYTES, files: 1, fields: 10, fieldSize: 64 * 1024 },
+  // Browsers send file names as UTF-8 bytes without a charset; multer's default would read them as Latin-1.
+  defParamCharset: "utf8",
 }).single("file");
 
 /** multer with its errors turned into the API's JSON errors (413 for a file over the limit). */
@@ -35,6 +38,9 @@ const receiveFile: RequestHandler = (req, res, next) => {
       }
       return next(new HttpError("bad_request", `Upload refused: ${err.message}`));
     }
+    // busboy's own refusals of a broken body (a NUL or line break in a part header, a cut-off form).
+    if (err instanceof Error && /^(Malformed|Unexpected end|Multipart:)/.test(err.message))
+      return next(new HttpError("bad_request", `The multipart body could not be read: ${err.message}`));
     next(err);
   });
 };
@@ -53,6 +59,16 @@ export function projectUploadRoutes(ctx: RouteContext): Router {
     const { projectId } = parseInput(ProjectIdParamSchema, req.params);
     if (!req.file)
       throw new HttpError("bad_request", "Send the file as multipart/form-data in a field named file");
+    if (hasNul(req.file.originalname))
+      throw validationFailed(
+        [
+          {
+            path: ["file"],
+            message: "the file name contains a NUL character (U+0000), which is not allowed",
+          },
+        ],
+        "The file name contains a NUL character (U+0000), which is not allowed",
+      );
     const upload = await createUpload(ctx.db, currentUser(req), projectId, req.file);
     res.status(201).json({ upload });
   });

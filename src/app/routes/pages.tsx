@@ -17,7 +17,9 @@ export function HomeRoute() {
 
 /** `/account`. */
 export function AccountRoute() {
-  return <AccountPage user={useSessionUser()} tokens={<TokensSection />} />;
+  const user = useSessionUser();
+  // On a temporary password the server refuses everything but the change itself, tokens included.
+  return <AccountPage user={user} tokens={user.mustChangePassword ? undefined : <TokensSection />} />;
 }
 
 const ADMIN: readonly Role[] = ["admin"];

@@ -46,8 +46,8 @@ export function localDayToIso(day: string, endOfDay = false): string | undefined
 export function toApiFilter(s: AuditUrlState): AuditFilter {
   const id = (v: string) => (/^\d+$/.test(v) ? Number(v) : undefined);
   return {
-    projectId: id(s.projectId),
-    userId: id(s.userId),
+    project: id(s.projectId),
+    user: id(s.userId),
     action: s.action === "" ? undefined : s.action,
     from: localDayToIso(s.from),
     to: localDayToIso(s.to, true),
