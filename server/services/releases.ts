@@ -23,6 +23,7 @@ import { projectAccess, visibleDesign, type Tx } from "./designs";
 import { authorize } from "./lifecycle";
 import type { Viewer } from "./projects";
 import { mailBase, reportSummary, revisionFacts } from "./reviews";
+import { vectorSetsOf, verificationStates } from "./verifications";
 
 const releaser = alias(users, "releaser");
 const withdrawer = alias(users, "withdrawer");
@@ -75,6 +76,10 @@ export async function releaseRows(db: Db | Tx, where: SQL | undefined): Promise<
     .leftJoin(withdrawer, eq(withdrawer.id, releases.withdrawnById))
     .where(where)
     .orderBy(desc(releases.releasedAt), desc(releases.id));
+  const runs = await verificationStates(
+    db,
+    rows.map((r) => r.id),
+  );
   return rows.map((r) => ({
     id: r.id,
     designId: r.designId,
@@ -102,6 +107,10 @@ export async function releaseRows(db: Db | Tx, where: SQL | undefined): Promise<
         : null,
     // A waveform design's release carries its transmit table (DESIGN.md "Cautions").
     transmit: r.designKind === "waveform",
+    verification: {
+      ...(runs.get(r.id) ?? { latest: null, passedSets: [] }),
+      sets: vectorSetsOf(r.manifest).map((s) => s.name),
+    },
   }));
 }
 
@@ -368,6 +377,27 @@ export async function withdrawRelease(
     });
   });
   return getRelease(db, viewer, releaseId);
+}
+
+/** Active releases in the viewer's projects with a vector set that no run has passed yet, newest first. */
+export async function unverifiedReleases(db: Db, viewer: Viewer, limit: number) {
+  const rows = await releaseRows(db, and(myProjects(db, viewer), isNull(releases.withdrawnAt)));
+  return rows
+    .filter((r) => r.verification.sets.some((s) => !r.verification.passedSets.includes(s)))
+    .slice(0, limit)
+    .map((r) => ({
+      id: r.id,
+      designName: r.designName,
+      projectSlug: r.projectSlug,
+      version: r.version,
+      releasedAt: r.releasedAt,
+      withdrawn: false,
+      verification: {
+        latest: r.verification.latest?.verdict ?? null,
+        passedSets: r.verification.passedSets.length,
+        sets: r.verification.sets.length,
+      },
+    }));
 }
 
 /** The newest releases in the viewer's projects, for the home page. */

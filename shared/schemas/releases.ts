@@ -51,6 +51,8 @@ export type ReleaseFile = z.infer<typeof ReleaseFileSchema>;
 export const ReleaseVerificationSchema = z.object({
   latest: z.object({ verdict: z.enum(["pass", "fail"]), vectorSet: z.string(), at: z.string() }).nullable(),
   passedSets: z.array(z.string()),
+  /** The vector sets of the release's bundle (format 1.x bundles: `scenario`). */
+  sets: z.array(z.string()),
 });
 export type ReleaseVerification = z.infer<typeof ReleaseVerificationSchema>;
 
@@ -77,7 +79,7 @@ export const ReleaseSchema = z.object({
   /** A transmit waveform: the UI shows the dummy-load / spectrum-rules caution of DESIGN.md. */
   transmit: z.boolean(),
   /** Verification runs recorded against it (docs/verification.md). */
-  verification: ReleaseVerificationSchema.default({ latest: null, passedSets: [] }),
+  verification: ReleaseVerificationSchema.default({ latest: null, passedSets: [], sets: [] }),
 });
 export type Release = z.infer<typeof ReleaseSchema>;
 
