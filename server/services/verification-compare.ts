@@ -131,6 +131,7 @@ export function parseDecimalSamples(bytes: Uint8Array, bits: number): Samples {
       while (i < bytes.length && bytes[i] !== LF) i++;
     } else {
       const realPart = integer("I");
+      if (atLineEnd()) fail("expected a second integer (Q, the imaginary part) on this line", i);
       if (bytes[i] !== SP && bytes[i] !== TAB)
         fail(`expected a space, then the Q value, found ${shown(bytes, i)}`, i);
       skipBlanks();
