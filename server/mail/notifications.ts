@@ -81,7 +81,9 @@ export async function recipientsFor(tx: Executor, event: NotifyEvent, c: NotifyB
     case "verified": {
       const reviewers = (c as NotifyContext<"verified">).reviewerUserIds;
       const all = await Promise.all(
-        [c.authorUserId, ...reviewers].filter((id) => id !== c.actorUserId).map((id) => activeAddressOf(tx, id)),
+        [c.authorUserId, ...reviewers]
+          .filter((id) => id !== c.actorUserId)
+          .map((id) => activeAddressOf(tx, id)),
       );
       return [...new Set(all.flat())].sort();
     }

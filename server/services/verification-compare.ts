@@ -93,7 +93,9 @@ export function parseDecimalSamples(bytes: Uint8Array, bits: number): Samples {
     while (i < bytes.length && (bytes[i] === SP || bytes[i] === TAB)) i++;
   };
   const atLineEnd = () =>
-    i >= bytes.length || bytes[i] === LF || (bytes[i] === CR && (bytes[i + 1] === LF || i + 1 === bytes.length));
+    i >= bytes.length ||
+    bytes[i] === LF ||
+    (bytes[i] === CR && (bytes[i + 1] === LF || i + 1 === bytes.length));
   const integer = (part: "I" | "Q"): number => {
     const start = i;
     let negative = false;
@@ -155,7 +157,13 @@ export function parseDecimalSamples(bytes: Uint8Array, bits: number): Samples {
 }
 
 const hexValue = (b: number): number =>
-  b >= 0x30 && b <= 0x39 ? b - 0x30 : b >= 0x41 && b <= 0x46 ? b - 0x37 : b >= 0x61 && b <= 0x66 ? b - 0x57 : -1;
+  b >= 0x30 && b <= 0x39
+    ? b - 0x30
+    : b >= 0x41 && b <= 0x46
+      ? b - 0x37
+      : b >= 0x61 && b <= 0x66
+        ? b - 0x57
+        : -1;
 
 /**
  * `$readmemh`-style hex (IEEE 1364-2005 §17.2.9): whitespace-separated two's-complement words of the output
@@ -231,15 +239,15 @@ export function parseHexSamples(bytes: Uint8Array, bits: number): Samples {
         }
         count++;
         if (count > digits)
-          fail(
-            `expected at most ${digits} hex digits for a ${bits}-bit word, this word has more`,
-            start,
-          );
+          fail(`expected at most ${digits} hex digits for a ${bits}-bit word, this word has more`, start);
         value = value * 16 + h;
         i++;
       }
       if (value >= modulus)
-        fail(`the word is wider than the ${bits}-bit output (at most ${(modulus - 1).toString(16).toUpperCase()})`, start);
+        fail(
+          `the word is wider than the ${bits}-bit output (at most ${(modulus - 1).toString(16).toUpperCase()})`,
+          start,
+        );
       const signed = value >= half ? value - modulus : value;
       if (words % 2 === 0) re.push(signed);
       else im.push(signed);

@@ -6,12 +6,7 @@ import { createRequire } from "node:module";
 import path from "node:path";
 import { pathToFileURL } from "node:url";
 import { Worker } from "node:worker_threads";
-import {
-  runCompareTask,
-  SampleParseError,
-  type CompareTask,
-  type Comparison,
-} from "./verification-compare";
+import { runCompareTask, SampleParseError, type CompareTask, type Comparison } from "./verification-compare";
 
 /** Above this many bytes (upload + expected output) the comparison runs in a worker thread. */
 export const INLINE_COMPARE_BYTES = 256 * 1024;

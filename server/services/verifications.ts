@@ -31,7 +31,8 @@ import { compare } from "./verification-runner";
 type Json = Record<string, unknown>;
 const isObj = (v: unknown): v is Json => typeof v === "object" && v !== null && !Array.isArray(v);
 const str = (v: unknown, fallback = ""): string => (typeof v === "string" ? v : fallback);
-const num = (v: unknown, fallback = 0): number => (typeof v === "number" && Number.isFinite(v) ? v : fallback);
+const num = (v: unknown, fallback = 0): number =>
+  typeof v === "number" && Number.isFinite(v) ? v : fallback;
 const bigText = (v: unknown): string | null =>
   typeof v === "string" ? v : typeof v === "number" && Number.isFinite(v) ? String(v) : null;
 
@@ -399,7 +400,9 @@ export async function verificationStates(
   const passed = await db
     .select({
       releaseId: verificationRuns.releaseId,
-      sets: sql<string[]>`array_agg(distinct ${verificationRuns.vectorSet} order by ${verificationRuns.vectorSet})`,
+      sets: sql<
+        string[]
+      >`array_agg(distinct ${verificationRuns.vectorSet} order by ${verificationRuns.vectorSet})`,
     })
     .from(verificationRuns)
     .where(and(inArray(verificationRuns.releaseId, ids), eq(verificationRuns.verdict, "pass")))

@@ -6,7 +6,13 @@ import { z } from "zod";
 import { PersonSchema } from "./releases";
 
 /** The vector sets a bundle can carry (format 1.x bundles carry `scenario` only). */
-export const VECTOR_SET_NAMES = ["scenario", "impulse", "worst-case", "rounding", "random-full-scale"] as const;
+export const VECTOR_SET_NAMES = [
+  "scenario",
+  "impulse",
+  "worst-case",
+  "rounding",
+  "random-full-scale",
+] as const;
 
 /** A vector-set name as a form or a script sends it. */
 export const VectorSetNameSchema = z

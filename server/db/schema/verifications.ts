@@ -1,5 +1,15 @@
 import { sql } from "drizzle-orm";
-import { boolean, check, index, integer, jsonb, pgTable, text, timestamp, varchar } from "drizzle-orm/pg-core";
+import {
+  boolean,
+  check,
+  index,
+  integer,
+  jsonb,
+  pgTable,
+  text,
+  timestamp,
+  varchar,
+} from "drizzle-orm/pg-core";
 import { bytea } from "./designs";
 import { releases } from "./reviews";
 import { users } from "./users";
@@ -44,9 +54,6 @@ export const verificationRuns = pgTable(
     index("verification_runs_release_idx").on(t.releaseId, t.id),
     check("verification_runs_verdict_check", sql`${t.verdict} in ('pass', 'fail')`),
     check("verification_runs_sha256_format", sql`${t.uploadSha256} ~ '^[0-9a-f]{64}$'`),
-    check(
-      "verification_runs_verdict_consistent",
-      sql`(${t.verdict} = 'pass') = (${t.mismatches} = 0)`,
-    ),
+    check("verification_runs_verdict_consistent", sql`(${t.verdict} = 'pass') = (${t.mismatches} = 0)`),
   ],
 );

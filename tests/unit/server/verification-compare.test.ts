@@ -121,13 +121,30 @@ describe("comparison", () => {
   });
 
   it("searches the latency: three leading zeros of pipeline fill, two trailing extras", () => {
-    const got = samples([[0, 0], [0, 0], [0, 0], [5, -1], [7, 2], [-3, 0], [0, 9], [0, 0], [1, 1]]);
+    const got = samples([
+      [0, 0],
+      [0, 0],
+      [0, 0],
+      [5, -1],
+      [7, 2],
+      [-3, 0],
+      [0, 9],
+      [0, 0],
+      [1, 1],
+    ]);
     const c = compareSamples(expected, got);
     expect(c).toMatchObject({ verdict: "pass", latencySamples: 3, extraSamples: 2, uploadedSamples: 9 });
   });
 
   it("fails a short output with the first missing sample and got = null", () => {
-    const c = compareSamples(expected, samples([[5, -1], [7, 2]]), 0);
+    const c = compareSamples(
+      expected,
+      samples([
+        [5, -1],
+        [7, 2],
+      ]),
+      0,
+    );
     expect(c).toMatchObject({ verdict: "fail", mismatches: 2, missingSamples: 2 });
     expect(c.firstMismatch).toEqual({ index: 2, expected: { re: -3, im: 0 }, got: null });
   });
@@ -135,7 +152,9 @@ describe("comparison", () => {
   it("keeps the error envelope's maxima per bucket", () => {
     const n = 3000;
     const e = samples(Array.from({ length: n }, (_, k) => [k, -k] as [number, number]));
-    const g = samples(Array.from({ length: n }, (_, k) => [k + (k === 2500 ? 7 : 0), -k] as [number, number]));
+    const g = samples(
+      Array.from({ length: n }, (_, k) => [k + (k === 2500 ? 7 : 0), -k] as [number, number]),
+    );
     const c = compareSamples(e, g, 0);
     expect(c.errorEnvelope.bucket).toBe(3);
     expect(c.errorEnvelope.maxAbsLsb.length).toBe(1000);
@@ -144,7 +163,12 @@ describe("comparison", () => {
   });
 
   it("gives the same answer in a worker thread, and the parser's line and column from there", async () => {
-    const task = { expected: enc("1 2\n3 4\n"), upload: enc("0 0\n1 2\n3 5\n"), format: "text" as const, bits: 8 };
+    const task = {
+      expected: enc("1 2\n3 4\n"),
+      upload: enc("0 0\n1 2\n3 5\n"),
+      format: "text" as const,
+      bits: 8,
+    };
     const c = await compareInThread(task);
     expect(c).toMatchObject({ verdict: "fail", latencySamples: 1, mismatches: 1 });
     expect(c.firstMismatch).toEqual({ index: 1, expected: { re: 3, im: 4 }, got: { re: 3, im: 5 } });
@@ -174,15 +198,31 @@ describe("vector sets of a manifest", () => {
     const set = (name: string) => ({
       name,
       description: `${name} set`,
-      stimulus: { text: `golden/${name}/stimulus.txt`, hex: `golden/${name}/stimulus.hex`, length: 64, bits: 12 },
-      expected: { text: `golden/${name}/expected.txt`, hex: `golden/${name}/expected.hex`, length: 76, bits: 18 },
+      stimulus: {
+        text: `golden/${name}/stimulus.txt`,
+        hex: `golden/${name}/stimulus.hex`,
+        length: 64,
+        bits: 12,
+      },
+      expected: {
+        text: `golden/${name}/expected.txt`,
+        hex: `golden/${name}/expected.hex`,
+        length: 76,
+        bits: 18,
+      },
       maxAbsAccumulator: "34359738368",
       accumulatorBound: 34359738368,
     });
     const sets = vectorSetsOf({
       golden: { sets: ["scenario", "impulse", "worst-case", "rounding", "random-full-scale"].map(set) },
     });
-    expect(sets.map((s) => s.name)).toEqual(["scenario", "impulse", "worst-case", "rounding", "random-full-scale"]);
+    expect(sets.map((s) => s.name)).toEqual([
+      "scenario",
+      "impulse",
+      "worst-case",
+      "rounding",
+      "random-full-scale",
+    ]);
     expect(sets[2]).toMatchObject({
       expected: { text: "golden/worst-case/expected.txt", bits: 18, length: 76 },
       maxAbsAccumulator: "34359738368",
@@ -200,7 +240,13 @@ describe("vector sets of a manifest", () => {
           length: 13,
           gain: 0.5,
           overflowCount: 0,
-          fixedPoint: { wordLength: 14, fractionLength: 13, signed: true, rounding: "convergent", overflow: "wrap" },
+          fixedPoint: {
+            wordLength: 14,
+            fractionLength: 13,
+            signed: true,
+            rounding: "convergent",
+            overflow: "wrap",
+          },
         },
       ],
     });
