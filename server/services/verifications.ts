@@ -210,9 +210,21 @@ export async function listVerifications(db: Db, viewer: Viewer, releaseId: numbe
 
 /** GET /api/releases/:id/summary: tables, vector sets and approvals as the stored manifest states them. */
 export async function releaseSummary(db: Db, viewer: Viewer, releaseId: number): Promise<ReleaseSummary> {
-  await getRelease(db, viewer, releaseId);
-  const { manifest } = await storedRelease(db, releaseId);
+  const release = await getRelease(db, viewer, releaseId);
+  const { manifest, bundle, sha256 } = await storedRelease(db, releaseId);
   const m = isObj(manifest) ? manifest : {};
+  // The manifest lists every file but itself and SHA256SUMS: those two come from the zip (if it is intact).
+  const files = [...release.files];
+  if (bundle && sha256 && sha256Hex(bundle) === sha256) {
+    const zip = await JSZip.loadAsync(bundle);
+    for (const p of ["manifest.json", "SHA256SUMS"]) {
+      const entry = zip.file(p);
+      if (!entry || files.some((f) => f.path === p)) continue;
+      const bytes = await entry.async("uint8array");
+      files.push({ path: p, size: bytes.byteLength, sha256: sha256Hex(bytes) });
+    }
+  }
+  files.sort((a, b) => (a.path < b.path ? -1 : a.path > b.path ? 1 : 0));
   const approvals = Array.isArray(m.approvals) ? m.approvals.filter(isObj) : [];
   return {
     schemaVersion: str(m.schemaVersion, "unknown"),
@@ -223,6 +235,7 @@ export async function releaseSummary(db: Db, viewer: Viewer, releaseId: number):
       at: str(a.at),
       comment: str(a.comment),
     })),
+    files,
   };
 }
 

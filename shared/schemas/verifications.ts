@@ -3,7 +3,7 @@
  * bit-exactly with the set's expected output read from the stored bundle (docs/verification.md).
  */
 import { z } from "zod";
-import { PersonSchema } from "./releases";
+import { PersonSchema, ReleaseFileSchema } from "./releases";
 
 /** The vector sets a bundle can carry (format 1.x bundles carry `scenario` only). */
 export const VECTOR_SET_NAMES = [
@@ -150,5 +150,7 @@ export const ReleaseSummarySchema = z.object({
   tables: z.array(TableSummarySchema),
   vectorSets: z.array(VectorSetSchema),
   approvals: z.array(z.object({ reviewer: z.string(), at: z.string(), comment: z.string() })),
+  /** Every file of the zip, manifest.json and SHA256SUMS included, sorted by path (from the stored zip). */
+  files: z.array(ReleaseFileSchema),
 });
 export type ReleaseSummary = z.infer<typeof ReleaseSummarySchema>;

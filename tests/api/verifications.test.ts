@@ -270,6 +270,18 @@ describe("verification runs", () => {
       ["tx", 16, 15, true],
       ["rx", 16, 15, true],
     ]);
+    // The complete file list: the manifest's plus manifest.json and SHA256SUMS, as unzip found them.
+    expect(s.files.map((f) => f.path)).toEqual(
+      execFileSync("find", [".", "-type", "f"], { cwd: bundle.dir, encoding: "utf8" })
+        .trim()
+        .split("\n")
+        .map((p) => p.slice(2))
+        .sort((a, b) => (a < b ? -1 : a > b ? 1 : 0)),
+    );
+    const sums = s.files.find((f) => f.path === "SHA256SUMS")!;
+    expect(sums.sha256).toBe(
+      execFileSync("sha256sum", ["SHA256SUMS"], { cwd: bundle.dir, encoding: "utf8" }).split(" ")[0],
+    );
     expect(s.approvals).toEqual([
       expect.objectContaining({ reviewer: "Tomas Quill", comment: "Meets the limits." }),
     ]);
