@@ -92,6 +92,7 @@ export function VerificationEvidence({ releaseId }: { releaseId: number }) {
   const runs = useVerifications(releaseId);
   if (!summary.data || !runs.data) return null;
   const latest = latestPerSet(runs.data);
+  const passed = new Set(runs.data.filter((r) => r.verdict === "pass").map((r) => r.vectorSet));
   return (
     <div
       aria-label="Verification evidence"
@@ -121,6 +122,9 @@ export function VerificationEvidence({ releaseId }: { releaseId: number }) {
                     {r.simulator ? ` · ${r.simulator}` : ""}
                     {r.rtlRevision ? ` · RTL ${r.rtlRevision}` : ""}
                   </span>
+                  {r.verdict === "fail" && passed.has(set.name) && (
+                    <span className="text-ink-600">(newest run; an earlier run passed)</span>
+                  )}
                 </>
               ) : (
                 <span className="text-ink-600">no run yet</span>

@@ -5,7 +5,6 @@ import { Button } from "@/components/ui/button";
 import { EmptyState } from "@/components/ui/states";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { formatCount, formatDateTime } from "@/lib/format";
-import { shortHash } from "@/features/reviews/lib/figures";
 import { sampleText } from "../lib/runs";
 import { RunErrorPlot } from "./error-plot";
 import { VerdictBadge } from "./verdict-badge";
@@ -43,11 +42,11 @@ export function RunsTable({ releaseId, runs }: { releaseId: number; runs: readon
             <Th numeric>Compared</Th>
             <Th numeric>Mismatches</Th>
             <Th>First mismatch: expected → got</Th>
-            <Th numeric>Max |err| (LSB)</Th>
+            <Th numeric title="Largest |got − expected| over the compared samples, in output LSBs">
+              Max err
+            </Th>
             <Th numeric>Latency</Th>
-            <Th>Simulator · RTL</Th>
-            <Th>Upload</Th>
-            <Th>By</Th>
+            <Th>Source · upload</Th>
             <Th>
               <span className="sr-only">Plot</span>
             </Th>
@@ -75,27 +74,36 @@ export function RunsTable({ releaseId, runs }: { releaseId: number; runs: readon
                 <FirstMismatch run={r} />
               </Td>
               <Td numeric>{formatCount(r.maxAbsErrorLsb)}</Td>
-              <Td numeric title={r.latencySource === "searched" ? "found by search" : "declared"}>
+              <Td
+                numeric
+                className="whitespace-nowrap"
+                title={r.latencySource === "searched" ? "found by search" : "declared with the upload"}
+              >
                 {r.latencySamples}
                 <span className="ml-1 font-sans text-xs text-ink-600">
                   {r.latencySource === "searched" ? "found" : "given"}
                 </span>
               </Td>
-              <Td className="text-xs">
-                {r.simulator ?? "—"} · <span className="font-mono">{r.rtlRevision ?? "—"}</span>
-              </Td>
-              <Td className="text-xs whitespace-nowrap">
-                <a
-                  href={`/api/releases/${releaseId}/verifications/${r.id}/upload`}
-                  download
-                  className="font-mono text-signal-800 underline-offset-2 hover:underline"
-                  title={`${r.fileName}, SHA-256 ${r.uploadSha256}`}
+              <Td className="max-w-72 text-xs leading-4">
+                <span
+                  className="block truncate"
+                  title={`${r.simulator ?? "—"} · RTL ${r.rtlRevision ?? "—"}`}
                 >
-                  {r.fileName}
-                </a>{" "}
-                <span className="font-mono text-ink-600">{shortHash(r.uploadSha256)}</span>
+                  {r.simulator ?? "no simulator named"} ·{" "}
+                  <span className="font-mono">{r.rtlRevision ?? "—"}</span>
+                </span>
+                <span className="block truncate text-ink-600">
+                  <a
+                    href={`/api/releases/${releaseId}/verifications/${r.id}/upload`}
+                    download
+                    className="font-mono text-signal-800 underline-offset-2 hover:underline"
+                    title={`${r.fileName}, SHA-256 ${r.uploadSha256}`}
+                  >
+                    {r.fileName}
+                  </a>{" "}
+                  · {r.by.displayName}
+                </span>
               </Td>
-              <Td className="text-xs whitespace-nowrap">{r.by.displayName}</Td>
               <Td>
                 <Button
                   size="sm"
