@@ -2,7 +2,7 @@
  * The bit-exact comparison behind verification runs (docs/verification.md): read a vector set's expected
  * output and a simulation's output, both as complex integer samples, align them (a declared latency or a
  * bounded search) and compare every expected sample. Pure and linear in the file sizes (one pass over the
- * bytes; the latency search is at most MAX_LATENCY_SEARCH + 1 passes with early exit), so it can run in a
+ * bytes; the latency search looks at a 1,024-sample prefix only, then one full pass), so it can run in a
  * worker thread (verification-thread.ts) for large files.
  */
 import { MAX_LATENCY_SEARCH } from "../../shared/schemas/verifications";
@@ -293,9 +293,18 @@ export interface Comparison {
 /** Points in the error envelope at most (the plot's resolution). */
 export const ENVELOPE_POINTS = 1024;
 
-/** Mismatching expected samples at latency L, stopping once more than `stopAbove` are found. */
-function countMismatches(expected: Samples, got: Samples, L: number, stopAbove: number): number {
-  const n = expected.re.length;
+/** Expected samples the latency search looks at (a prefix: the search stays linear in the file size). */
+export const LATENCY_SEARCH_WINDOW = 1024;
+
+/** Mismatches among the first `window` expected samples at latency L, stopping above `stopAbove`. */
+function countMismatches(
+  expected: Samples,
+  got: Samples,
+  L: number,
+  window: number,
+  stopAbove: number,
+): number {
+  const n = Math.min(expected.re.length, window);
   const available = Math.max(0, got.re.length - L);
   let bad = Math.max(0, n - available);
   const upto = Math.min(n, available);
@@ -305,8 +314,9 @@ function countMismatches(expected: Samples, got: Samples, L: number, stopAbove: 
 }
 
 /**
- * Compare every expected sample with the upload shifted by a latency: the declared one, or the smallest
- * L in 0…MAX_LATENCY_SEARCH with no mismatch (else the one with the fewest, the smallest on a tie).
+ * Compare every expected sample with the upload shifted by a latency: the declared one, or the one the
+ * search picks on the first LATENCY_SEARCH_WINDOW expected samples: the smallest L in 0…MAX_LATENCY_SEARCH
+ * with no mismatch there, else the one with the fewest (the smallest on a tie).
  */
 export function compareSamples(expected: Samples, got: Samples, declaredLatency?: number): Comparison {
   const n = expected.re.length;
@@ -317,7 +327,7 @@ export function compareSamples(expected: Samples, got: Samples, declaredLatency?
     let best = Number.POSITIVE_INFINITY;
     const last = Math.min(MAX_LATENCY_SEARCH, got.re.length);
     for (let candidate = 0; candidate <= last; candidate++) {
-      const bad = countMismatches(expected, got, candidate, best - 1);
+      const bad = countMismatches(expected, got, candidate, LATENCY_SEARCH_WINDOW, best - 1);
       if (bad < best) {
         best = bad;
         L = candidate;
