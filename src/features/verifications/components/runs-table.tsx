@@ -39,8 +39,7 @@ export function RunsTable({ releaseId, runs }: { releaseId: number; runs: readon
             <Th>Recorded</Th>
             <Th>Set</Th>
             <Th>Verdict</Th>
-            <Th numeric>Compared</Th>
-            <Th numeric>Mismatches</Th>
+            <Th numeric>Mismatches / compared</Th>
             <Th>First mismatch: expected → got</Th>
             <Th numeric title="Largest |got − expected| over the compared samples, in output LSBs">
               Max err
@@ -66,9 +65,11 @@ export function RunsTable({ releaseId, runs }: { releaseId: number; runs: readon
                   </Badge>
                 )}
               </Td>
-              <Td numeric>{formatCount(r.compared)}</Td>
-              <Td numeric className={r.mismatches > 0 ? "text-fail-700" : undefined}>
-                {formatCount(r.mismatches)}
+              <Td numeric className="whitespace-nowrap">
+                <span className={r.mismatches > 0 ? "text-fail-700" : undefined}>
+                  {formatCount(r.mismatches)}
+                </span>
+                <span className="text-ink-600"> / {formatCount(r.compared)}</span>
               </Td>
               <Td>
                 <FirstMismatch run={r} />
@@ -84,7 +85,7 @@ export function RunsTable({ releaseId, runs }: { releaseId: number; runs: readon
                   {r.latencySource === "searched" ? "found" : "given"}
                 </span>
               </Td>
-              <Td className="max-w-72 text-xs leading-4">
+              <Td className="max-w-56 text-xs leading-4">
                 <span
                   className="block truncate"
                   title={`${r.simulator ?? "—"} · RTL ${r.rtlRevision ?? "—"}`}
