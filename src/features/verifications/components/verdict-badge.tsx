@@ -9,7 +9,12 @@ export function VerdictBadge({ verdict }: { verdict: "pass" | "fail" }) {
 /** A release's verification state for list cells: the newest verdict and how many sets have passed. */
 export function VerificationCell({ verification }: { verification: ReleaseVerification }) {
   const { latest, passedSets, sets } = verification;
-  if (!latest) return <span title="No verification run recorded">—</span>;
+  if (!latest)
+    return (
+      <span className="text-xs text-ink-600" title="No verification run recorded">
+        not run
+      </span>
+    );
   const passed = sets.filter((s) => passedSets.includes(s)).length;
   return (
     <span
@@ -18,7 +23,7 @@ export function VerificationCell({ verification }: { verification: ReleaseVerifi
     >
       <VerdictBadge verdict={latest.verdict} />
       <span className="font-mono text-xs text-ink-700">
-        {passed}/{sets.length} sets
+        {passed}/{sets.length} passed
       </span>
     </span>
   );
