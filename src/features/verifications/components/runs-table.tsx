@@ -77,15 +77,16 @@ export function RunsTable({ releaseId, runs }: { releaseId: number; runs: readon
               <Td numeric>{formatCount(r.maxAbsErrorLsb)}</Td>
               <Td
                 numeric
-                className="whitespace-nowrap"
-                title={r.latencySource === "searched" ? "found by search" : "declared with the upload"}
+                title={
+                  r.latencySource === "searched"
+                    ? "found by the search over leading samples"
+                    : "declared with the upload"
+                }
               >
                 {r.latencySamples}
-                <span className="ml-1 font-sans text-xs text-ink-600">
-                  {r.latencySource === "searched" ? "found" : "given"}
-                </span>
+                {r.latencySource === "searched" ? "" : "*"}
               </Td>
-              <Td className="max-w-56 text-xs leading-4">
+              <Td className="max-w-48 text-xs leading-4">
                 <span
                   className="block truncate"
                   title={`${r.simulator ?? "—"} · RTL ${r.rtlRevision ?? "—"}`}
@@ -120,6 +121,10 @@ export function RunsTable({ releaseId, runs }: { releaseId: number; runs: readon
           ))}
         </tbody>
       </Table>
+      <p className="-mt-2 text-xs text-ink-600">
+        Latency in samples skipped before the comparison; * declared with the upload, otherwise found by the
+        search over leading samples.
+      </p>
       <RunErrorPlot key={shown.id} run={shown} />
     </div>
   );
