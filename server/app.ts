@@ -35,6 +35,7 @@ import { revisionRoutes } from "./routes/revisions";
 import { templateRoutes } from "./routes/templates";
 import { tokenRoutes } from "./routes/tokens";
 import { projectUploadRoutes, uploadRoutes } from "./routes/uploads";
+import { verificationRoutes } from "./routes/verifications";
 
 /** The session cookie's name (shared with the client's tests). */
 export const SESSION_COOKIE = "tapwright.sid";
@@ -196,6 +197,7 @@ export function createApp(deps: AppDeps): CreatedApp {
   api.use("/releases", releaseRoutes(ctx));
   api.use("/releases", releaseDownloadRoutes(ctx));
   api.use("/releases", releaseDiffRoutes(ctx));
+  api.use("/releases", verificationRoutes(ctx));
   api.use("/revisions", analysisRoutes(ctx));
   api.use("/uploads", uploadRoutes(ctx));
   api.use("/templates", templateRoutes(ctx));

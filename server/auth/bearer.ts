@@ -1,6 +1,7 @@
 /**
  * Token authentication without passport: `Authorization: Bearer tw_…` makes the request act as the
- * token's owner. A `read` token may only GET/HEAD (anything else is 403); a bad or revoked token is 401,
+ * token's owner. A `read` token may only GET/HEAD (anything else is 403), a `verify` token may also post
+ * verification runs; a bad or revoked token is 401,
  * never a silent fall-back to the session, so a script learns at once that its token is dead.
  */
 import type { Request, RequestHandler } from "express";
@@ -27,6 +28,14 @@ declare global {
 }
 
 const READ_METHODS = new Set(["GET", "HEAD"]);
+// The one write a `verify` token may make: POST /api/releases/:id/verifications.
+const VERIFY_POST = /^\/api\/releases\/\d+\/verifications\/?$/;
+
+/** Whether a token of this scope may make this request (the owner's roles are checked by the route). */
+export function scopeAllows(scope: TokenScope, method: string, path: string): boolean {
+  if (READ_METHODS.has(method) || scope === "read-write") return true;
+  return scope === "verify" && method === "POST" && VERIFY_POST.test(path);
+}
 const BEARER = /^Bearer\s+(\S+)\s*$/i;
 
 /** Middleware: authenticate `Authorization: Bearer` tokens; requests without the header pass untouched. */
@@ -36,16 +45,19 @@ export function bearerAuth(db: Db): RequestHandler {
     if (header === undefined) return next();
     const m = BEARER.exec(header);
     if (!m) throw new HttpError("unauthenticated", "Use `Authorization: Bearer <token>`");
+    const path = req.originalUrl.split("?")[0] ?? req.originalUrl;
     const identity = await authenticateToken(db, m[1] ?? "", {
       method: req.method,
-      path: req.originalUrl.split("?")[0] ?? req.originalUrl,
+      path,
       ip: req.ip ?? null,
     });
     if (!identity) throw new HttpError("unauthenticated", "This API token is unknown or has been revoked");
-    if (identity.scope === "read" && !READ_METHODS.has(req.method))
+    if (!scopeAllows(identity.scope, req.method, path))
       throw new HttpError(
         "forbidden",
-        "This API token is read-only: it can download but not change anything",
+        identity.scope === "verify"
+          ? "This API token has the verify scope: it can download and post verification runs, nothing else"
+          : "This API token is read-only: it can download but not change anything",
       );
     // The token speaks for its owner on this request only; nothing is written into the session.
     req.user = tokenSessionUser(identity);

@@ -9,3 +9,4 @@ export * from "./schema/mail";
 export * from "./schema/templates";
 export * from "./schema/reviews";
 export * from "./schema/tokens";
+export * from "./schema/verifications";

@@ -4,7 +4,7 @@ import type { MailTemplateName } from "../../shared/schemas/mail";
 import { projectMembers, projects, userRoles, users } from "../db/schema";
 import type { Executor } from "../services/audit";
 import { enqueueMail } from "./outbox";
-import type { MailCommon, MailData } from "./templates";
+import type { MailCommon, MailData, MailVerificationRun } from "./templates";
 
 /** Events that send mail, one per template. */
 export type NotifyEvent = MailTemplateName;
@@ -29,6 +29,8 @@ export interface NotifyExtra {
   "changes-requested": { comment: string };
   released: { release: { id: number; version: string; notes: string } };
   withdrawn: { release: { id: number; version: string }; reason: string };
+  /** A verification run: mailed to the revision's author and the reviewers who approved it. */
+  verified: { release: { id: number; version: string }; run: MailVerificationRun; reviewerUserIds: number[] };
 }
 
 /** Full context for one event. */
@@ -76,6 +78,15 @@ export async function recipientsFor(tx: Executor, event: NotifyEvent, c: NotifyB
     case "released":
     case "withdrawn":
       return memberAddressesWithRole(tx, c.projectId, "firmware");
+    case "verified": {
+      const reviewers = (c as NotifyContext<"verified">).reviewerUserIds;
+      const all = await Promise.all(
+        [c.authorUserId, ...reviewers]
+          .filter((id) => id !== c.actorUserId)
+          .map((id) => activeAddressOf(tx, id)),
+      );
+      return [...new Set(all.flat())].sort();
+    }
   }
 }
 
@@ -133,6 +144,11 @@ async function dataFor<E extends NotifyEvent>(
       const x = any as NotifyContext<"withdrawn">;
       const data = await commonData(tx, c, `${base}/releases/${x.release.id}`);
       return { ...data, release: { version: x.release.version }, reason: x.reason } as MailData[E];
+    }
+    case "verified": {
+      const x = any as NotifyContext<"verified">;
+      const data = await commonData(tx, c, `${base}/releases/${x.release.id}`);
+      return { ...data, release: { version: x.release.version }, run: x.run } as MailData[E];
     }
   }
   throw new RangeError(`unknown notification event "${String(event)}"`);

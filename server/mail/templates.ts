@@ -30,6 +30,22 @@ export interface MailData {
   "changes-requested": MailCommon & { comment: string };
   released: MailCommon & { release: { version: string; notes: string } };
   withdrawn: MailCommon & { release: { version: string }; reason: string };
+  verified: MailCommon & { release: { version: string }; run: MailVerificationRun };
+}
+
+/** A verification run as the `verified` mail shows it (texts preformatted; empty strings when absent). */
+export interface MailVerificationRun {
+  vectorSet: string;
+  verdict: "pass" | "fail";
+  compared: number;
+  mismatches: number;
+  /** "" on a pass; else e.g. "sample 17: expected (12, -3), got (13, -3)". */
+  firstMismatch: string;
+  simulator: string;
+  rtlRevision: string;
+  uploadSha256: string;
+  /** The release was withdrawn when the run arrived. */
+  withdrawn: boolean;
 }
 
 /** A rendered message, ready for the outbox. */

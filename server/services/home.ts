@@ -3,7 +3,7 @@ import type { Home } from "../../shared/schemas/projects";
 import type { Db } from "../db/client";
 import type { HomeWork } from "../../shared/schemas/reviews";
 import { checkHealth } from "./health";
-import { newestReleases } from "./releases";
+import { newestReleases, unverifiedReleases } from "./releases";
 import { myRevisionsIn, reviewQueue } from "./reviews";
 import { listProjects } from "./projects";
 import { countActiveSessions, countUsers } from "./users";
@@ -41,6 +41,9 @@ async function workFor(db: Db, user: SessionUser): Promise<HomeWork> {
     work.lastReleases = await newestReleases(db, user, 5, false);
   }
   if (user.roles.includes("reviewer")) work.queueCount = (await reviewQueue(db, user)).length;
-  if (user.roles.includes("firmware")) work.newestReleases = await newestReleases(db, user, 5, true);
+  if (user.roles.includes("firmware")) {
+    work.newestReleases = await newestReleases(db, user, 5, true);
+    work.unverifiedReleases = await unverifiedReleases(db, user, 10);
+  }
   return work;
 }

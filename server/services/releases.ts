@@ -23,6 +23,7 @@ import { projectAccess, visibleDesign, type Tx } from "./designs";
 import { authorize } from "./lifecycle";
 import type { Viewer } from "./projects";
 import { mailBase, reportSummary, revisionFacts } from "./reviews";
+import { vectorSetsOf, verificationStates } from "./verifications";
 
 const releaser = alias(users, "releaser");
 const withdrawer = alias(users, "withdrawer");
@@ -76,15 +77,25 @@ function selectReleases(db: Db | Tx) {
 }
 
 type ReleaseRow = Awaited<ReturnType<ReturnType<typeof selectReleases>["execute"]>>[number];
+type RunStates = Awaited<ReturnType<typeof verificationStates>>;
 
 /** Release JSON for every row matching a condition, newest first. */
 export async function releaseRows(db: Db | Tx, where: SQL | undefined): Promise<Release[]> {
   const rows = await selectReleases(db).where(where).orderBy(desc(releases.releasedAt), desc(releases.id));
-  return rows.map(toRelease);
+  return withVerification(db, rows);
+}
+
+/** Rows as release JSON with each release's latest verification verdict (one query for all of them). */
+async function withVerification(db: Db | Tx, rows: ReleaseRow[]): Promise<Release[]> {
+  const runs = await verificationStates(
+    db,
+    rows.map((r) => r.id),
+  );
+  return rows.map((r) => toRelease(r, runs));
 }
 
 /** One joined row as release JSON. */
-function toRelease(r: ReleaseRow): Release {
+function toRelease(r: ReleaseRow, runs: RunStates): Release {
   return {
     id: r.id,
     designId: r.designId,
@@ -112,6 +123,10 @@ function toRelease(r: ReleaseRow): Release {
         : null,
     // A waveform design's release carries its transmit table (DESIGN.md "Cautions").
     transmit: r.designKind === "waveform",
+    verification: {
+      ...(runs.get(r.id) ?? { latest: null, passedSets: [] }),
+      sets: vectorSetsOf(r.manifest).map((s) => s.name),
+    },
   };
 }
 
@@ -186,7 +201,7 @@ export async function listReleases(db: Db, viewer: Viewer, q: ReleaseListQuery):
     design: q.design ?? null,
     status: q.status === "withdrawn" || q.status === "active" ? q.status : null,
   });
-  return rows.map(toRelease);
+  return withVerification(db, rows);
 }
 
 /**
@@ -410,6 +425,27 @@ export async function withdrawRelease(
     });
   });
   return getRelease(db, viewer, releaseId);
+}
+
+/** Active releases in the viewer's projects with a vector set that no run has passed yet, newest first. */
+export async function unverifiedReleases(db: Db, viewer: Viewer, limit: number) {
+  const rows = await releaseRows(db, and(myProjects(db, viewer), isNull(releases.withdrawnAt)));
+  return rows
+    .filter((r) => r.verification.sets.some((s) => !r.verification.passedSets.includes(s)))
+    .slice(0, limit)
+    .map((r) => ({
+      id: r.id,
+      designName: r.designName,
+      projectSlug: r.projectSlug,
+      version: r.version,
+      releasedAt: r.releasedAt,
+      withdrawn: false,
+      verification: {
+        latest: r.verification.latest?.verdict ?? null,
+        passedSets: r.verification.passedSets.length,
+        sets: r.verification.sets.length,
+      },
+    }));
 }
 
 /** The newest releases in the viewer's projects, for the home page. */

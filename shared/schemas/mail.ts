@@ -12,6 +12,7 @@ export const MAIL_TEMPLATES = [
   "changes-requested",
   "released",
   "withdrawn",
+  "verified",
 ] as const;
 /** One of MAIL_TEMPLATES. */
 export type MailTemplateName = (typeof MAIL_TEMPLATES)[number];

@@ -47,6 +47,15 @@ export const PersonSchema = z.object({ id: z.number().int(), displayName: z.stri
 export const ReleaseFileSchema = z.object({ path: z.string(), size: z.number().int(), sha256: z.string() });
 export type ReleaseFile = z.infer<typeof ReleaseFileSchema>;
 
+/** A release's verification state for lists: its newest run, and the vector sets with a passing run. */
+export const ReleaseVerificationSchema = z.object({
+  latest: z.object({ verdict: z.enum(["pass", "fail"]), vectorSet: z.string(), at: z.string() }).nullable(),
+  passedSets: z.array(z.string()),
+  /** The vector sets of the release's bundle (format 1.x bundles: `scenario`). */
+  sets: z.array(z.string()),
+});
+export type ReleaseVerification = z.infer<typeof ReleaseVerificationSchema>;
+
 /** The release JSON of every release route. */
 export const ReleaseSchema = z.object({
   id: z.number().int(),
@@ -69,6 +78,8 @@ export const ReleaseSchema = z.object({
   withdrawn: z.object({ at: z.string(), by: PersonSchema, reason: z.string() }).nullable(),
   /** A transmit waveform: the UI shows the dummy-load / spectrum-rules caution of DESIGN.md. */
   transmit: z.boolean(),
+  /** Verification runs recorded against it (docs/verification.md). */
+  verification: ReleaseVerificationSchema.default({ latest: null, passedSets: [], sets: [] }),
 });
 export type Release = z.infer<typeof ReleaseSchema>;
 

@@ -149,6 +149,14 @@ export const HomeReleaseSchema = z.object({
   version: z.string(),
   releasedAt: z.string(),
   withdrawn: z.boolean(),
+  /** Firmware's unverified list: the newest run's verdict and how many vector sets have passed, of how many. */
+  verification: z
+    .object({
+      latest: z.enum(["pass", "fail"]).nullable(),
+      passedSets: z.number().int(),
+      sets: z.number().int(),
+    })
+    .optional(),
 });
 
 /** The review/release part of GET /api/home (`work`), per role; absent parts are for roles the user lacks. */
@@ -161,5 +169,7 @@ export const HomeWorkSchema = z.object({
   queueCount: z.number().int().optional(),
   /** Firmware: the newest releases (not withdrawn) in my projects. */
   newestReleases: z.array(HomeReleaseSchema).optional(),
+  /** Firmware: active releases in my projects where some vector set has no passing verification run yet. */
+  unverifiedReleases: z.array(HomeReleaseSchema).optional(),
 });
 export type HomeWork = z.infer<typeof HomeWorkSchema>;

@@ -1,8 +1,11 @@
 /** API token contracts (issue 7): created once and shown once, hashed at rest, read-only by default, revocable. */
 import { z } from "zod";
 
-export const TOKEN_SCOPES = ["read", "read-write"] as const;
-/** `read`: GET/HEAD only (downloads); `read-write`: also changes, as its owner's roles allow. */
+export const TOKEN_SCOPES = ["read", "read-write", "verify"] as const;
+/**
+ * `read`: GET/HEAD only (downloads); `verify`: read, plus posting verification runs
+ * (POST /api/releases/:id/verifications); `read-write`: also changes, as its owner's roles allow.
+ */
 export const TokenScopeSchema = z.enum(TOKEN_SCOPES);
 export type TokenScope = z.infer<typeof TokenScopeSchema>;
 

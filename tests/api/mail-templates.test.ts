@@ -18,6 +18,21 @@ const samples: { [K in keyof MailData]: MailData[K] } = {
   "changes-requested": { ...common, comment: "Use\nW = 14 & F = 13" },
   released: { ...common, release: { version: "1.2.0", notes: "<b>notes</b>" } },
   withdrawn: { ...common, release: { version: "1.2.0" }, reason: "wrong gain" },
+  verified: {
+    ...common,
+    release: { version: "1.2.0" },
+    run: {
+      vectorSet: "scenario",
+      verdict: "fail",
+      compared: 83,
+      mismatches: 2,
+      firstMismatch: "sample 17: expected (12, -3), got (13, -3)",
+      simulator: "Icarus <b>12</b>",
+      rtlRevision: "",
+      uploadSha256: "ab".repeat(32),
+      withdrawn: true,
+    },
+  },
 };
 
 describe("mail templates", () => {
@@ -57,6 +72,25 @@ describe("mail templates", () => {
     expect(wave.html).toContain('role="note"');
     expect(fir.text).not.toContain("dummy load");
     expect(fir.html).not.toContain('role="note"');
+  });
+});
+
+describe("verified mail", () => {
+  it("names the verdict in the subject, the first mismatch and the withdrawal in the body", async () => {
+    const r = await mailTemplates().render("verified", samples.verified);
+    expect(r.subject).toBe(`[coastwatch-s] Verification FAIL: ${common.design.name} 1.2.0 (scenario)`);
+    expect(r.text).toContain("First mismatch: sample 17: expected (12, -3), got (13, -3)");
+    expect(r.text).toContain("withdrawn");
+    expect(r.text).not.toContain("RTL revision:");
+    expect(r.html).toContain("Icarus &lt;b&gt;12&lt;/b&gt;");
+    const pass = await mailTemplates().render("verified", {
+      ...samples.verified,
+      run: { ...samples.verified.run, verdict: "pass", mismatches: 0, firstMismatch: "", withdrawn: false },
+    });
+    expect(pass.subject).toContain("Verification PASS");
+    expect(pass.text).toContain("PASS, bit-exact");
+    expect(pass.text).not.toContain("First mismatch");
+    expect(pass.text).not.toContain("withdrawn");
   });
 });
 

@@ -23,7 +23,7 @@ export const apiTokens = pgTable(
     revokedAt: timestamp("revoked_at", { withTimezone: true }),
   },
   (t) => [
-    check("api_tokens_scope_check", sql`${t.scope} in ('read', 'read-write')`),
+    check("api_tokens_scope_check", sql`${t.scope} in ('read', 'read-write', 'verify')`),
     check("api_tokens_hash_format", sql`${t.tokenHash} ~ '^[0-9a-f]{64}$'`),
     index("api_tokens_user_idx").on(t.userId),
   ],

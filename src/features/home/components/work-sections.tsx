@@ -81,6 +81,57 @@ function ReleaseTable({
   );
 }
 
+/** Firmware's to-do: active releases where some vector set has no passing run yet. */
+function UnverifiedTable({ items }: { items: readonly HomeRelease[] }) {
+  if (items.length === 0)
+    return (
+      <EmptyState title="Every active release has a passing run for each vector set">
+        New releases appear here until your simulation output passes.
+      </EmptyState>
+    );
+  return (
+    <Table label="Waiting for verification">
+      <thead>
+        <tr>
+          <Th>Version</Th>
+          <Th>Design</Th>
+          <Th>Project</Th>
+          <Th>Released</Th>
+          <Th>Newest run</Th>
+          <Th numeric>Sets passed</Th>
+        </tr>
+      </thead>
+      <tbody>
+        {items.map((r) => (
+          <Tr key={r.id}>
+            <Td>
+              <Link
+                to={`/releases/${r.id}`}
+                className="font-mono font-medium text-signal-800 hover:underline"
+              >
+                {r.version}
+              </Link>
+            </Td>
+            <Td>{r.designName}</Td>
+            <Td className="font-mono text-[13px]">{r.projectSlug}</Td>
+            <Td className="font-mono text-[13px]">{formatDateTime(r.releasedAt)}</Td>
+            <Td>
+              {r.verification?.latest ? (
+                <Badge tone={r.verification.latest === "pass" ? "pass" : "fail"}>
+                  {r.verification.latest === "pass" ? "PASS" : "FAIL"}
+                </Badge>
+              ) : (
+                <span className="text-xs text-ink-600">no run yet</span>
+              )}
+            </Td>
+            <Td numeric>{r.verification ? `${r.verification.passedSets}/${r.verification.sets}` : "—"}</Td>
+          </Tr>
+        ))}
+      </tbody>
+    </Table>
+  );
+}
+
 function ReviewerQueue({ count }: { count: number }) {
   const queue = useReviewQueue();
   const link = (
@@ -141,6 +192,11 @@ export function WorkSections({ roles }: { roles: readonly Role[] }) {
         </>
       )}
       {roles.includes("reviewer") && <ReviewerQueue count={w.queueCount ?? 0} />}
+      {roles.includes("firmware") && (
+        <Section title="Waiting for verification">
+          <UnverifiedTable items={w.unverifiedReleases ?? []} />
+        </Section>
+      )}
       {roles.includes("firmware") && (
         <Section title="Newest releases">
           <ReleaseTable

@@ -1,7 +1,7 @@
 import type { Release } from "@shared/schemas/releases";
 import { CopyButton } from "@/components/ui/copy-button";
 import { Section } from "@/components/ui/page";
-import { curlCommand, pullCommand } from "../lib/commands";
+import { curlCommand, pullCommand, verifyCommand } from "../lib/commands";
 
 function CommandLine({ label, command }: { label: string; command: string }) {
   return (
@@ -33,6 +33,12 @@ export function BuildCommands({ release }: { release: Release }) {
         </p>
         <CommandLine label="Pull command" command={pullCommand(release, origin)} />
         <CommandLine label="Curl command" command={curlCommand(release, origin)} />
+        <p className="text-sm text-ink-700">
+          To record a verification run from the build, use a token with the{" "}
+          <code className="font-mono text-[13px]">verify</code> scope; the command exits 0 on PASS and 1 on
+          FAIL.
+        </p>
+        <CommandLine label="Verify command" command={verifyCommand(release, origin)} />
       </div>
     </Section>
   );

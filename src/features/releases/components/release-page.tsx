@@ -6,6 +6,11 @@ import { ErrorState, Skeleton } from "@/components/ui/states";
 import { HashText } from "@/features/reviews/components/hash-text";
 import { formatCount, formatDateTime, formatEng } from "@/lib/format";
 import { hasAnyRole } from "@/lib/roles";
+import { useReleaseSummary } from "@/features/verifications/api/get-release-summary";
+import {
+  ApprovedBy,
+  ReleaseVerificationSections,
+} from "@/features/verifications/components/release-verification";
 import { useRelease } from "../api/get-release";
 import { BuildCommands } from "./build-commands";
 import { TransmitReleaseCaution } from "./release-dialog";
@@ -66,6 +71,10 @@ function Facts({ release }: { release: Release }) {
         <span className="font-mono text-[13px]">{formatDateTime(release.releasedAt)}</span> by{" "}
         {release.releasedBy.displayName}
       </dd>
+      <dt className="text-ink-600">Approval</dt>
+      <dd>
+        <ApprovedBy releaseId={release.id} />
+      </dd>
       <dt className="text-ink-600">Bundle size</dt>
       <dd className="font-mono text-[13px]">
         {release.bundleSize === null
@@ -80,11 +89,15 @@ function Facts({ release }: { release: Release }) {
   );
 }
 
-/** `/releases/:id`: what firmware pulls — header, cautions, notes, files, download, commands, diff. */
+/**
+ * `/releases/:id`: what firmware pulls and proves — header, cautions, notes, tables, vector sets, upload and
+ * runs, files, download, commands, diff.
+ */
 export function ReleasePage() {
   const id = Number(useParams().id);
   const user = useOutletContext<SessionUser>();
   const release = useRelease(id);
+  const summary = useReleaseSummary(id);
   if (release.isPending)
     return (
       <div role="status" aria-label="Loading release" className="flex flex-col gap-3">
@@ -135,7 +148,9 @@ export function ReleasePage() {
           {r.notes}
         </div>
       </Section>
-      <ReleaseFiles files={r.files} />
+      <ReleaseVerificationSections release={r} canUpload={hasAnyRole(user.roles, ["firmware", "admin"])} />
+      {/* The summary adds manifest.json and SHA256SUMS, which the manifest cannot list. */}
+      <ReleaseFiles files={summary.data?.files ?? r.files} />
       <BuildCommands release={r} />
       <ReleaseDiffSection release={r} />
     </div>

@@ -10,6 +10,7 @@ import { useUrlParams } from "@/lib/use-url-params";
 import { useReleases } from "../api/get-releases";
 import { readReleaseUrl, toReleaseQuery, writeReleaseUrl, type ReleaseUrlState } from "../lib/filters";
 import { ReleaseStatusBadge } from "./release-status";
+import { VerificationCell } from "@/features/verifications/components/verdict-badge";
 
 const SELECT =
   "h-8 w-full rounded border border-paper-400 bg-white px-2 text-sm text-ink-900 focus:border-signal-600 focus:outline-none focus-visible:outline-2 focus-visible:outline-signal-500";
@@ -156,9 +157,8 @@ export function ReleasesPage() {
                 <Td className="font-mono text-[13px] whitespace-nowrap">{formatDateTime(r.releasedAt)}</Td>
                 <Td>{r.releasedBy.displayName}</Td>
                 <Td numeric>{r.bundleSize === null ? "—" : formatEng(r.bundleSize, "B")}</Td>
-                {/* Verification runs (firmware's bit-exact evidence) are a later issue: a placeholder until then. */}
                 <Td>
-                  <span title="No verification run recorded">—</span>
+                  <VerificationCell verification={r.verification} />
                 </Td>
               </Tr>
             ))}

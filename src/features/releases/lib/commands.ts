@@ -16,6 +16,17 @@ export function pullCommand(
   return `npm run pull -- ${shellQuote(spec)} --out ${shellQuote(out)} --server ${shellQuote(origin)}`;
 }
 
+/** `npm run verify -- <project>/<design>@<version> --set scenario FILE --server ORIGIN` (a `verify` token). */
+export function verifyCommand(
+  release: Pick<Release, "projectSlug" | "designName" | "version">,
+  origin: string,
+  set = "scenario",
+  file = "sim_out.txt",
+): string {
+  const spec = `${release.projectSlug}/${release.designName}@${release.version}`;
+  return `npm run verify -- ${shellQuote(spec)} --set ${shellQuote(set)} ${shellQuote(file)} --server ${shellQuote(origin)}`;
+}
+
 /** The bundle's URL by project, design and version (the form build scripts use; ids are not stable across servers). */
 export function bundleUrl(
   release: Pick<Release, "projectSlug" | "designName" | "version">,

@@ -6,6 +6,7 @@ import { ErrorState, TableSkeleton } from "@/components/ui/states";
 import { LimitChipView } from "@/features/analysis/components/limit-chips";
 import { ReleaseAction } from "@/features/releases/components/release-dialog";
 import { WithdrawAction } from "@/features/releases/components/withdraw-dialog";
+import { VerificationEvidence } from "@/features/verifications/components/release-verification";
 import { formatDateTime } from "@/lib/format";
 import { useDesignReleases } from "../api/get-design-releases";
 import { useReviewPage } from "../api/get-review";
@@ -100,23 +101,26 @@ function ReleasedAs({ page, canWithdraw }: { page: ReviewPage; canWithdraw: bool
   const release = releases.data?.find((r) => r.revisionId === page.revision.id);
   if (!release) return null;
   return (
-    <div className="flex flex-wrap items-center justify-between gap-2 rounded border border-paper-300 bg-paper-50 px-3 py-2 text-sm text-ink-800">
-      <span>
-        Released as{" "}
-        <Link to={`/releases/${release.id}`} className="font-mono font-medium text-signal-800 underline">
-          {release.version}
-        </Link>{" "}
-        by {release.releasedBy.displayName} on{" "}
-        <span className="font-mono">{formatDateTime(release.releasedAt)}</span>
-        {release.withdrawn && (
-          <>
-            {" "}
-            · <Badge tone="fail">withdrawn</Badge> {release.withdrawn.reason}
-          </>
-        )}
-      </span>
-      {canWithdraw && <WithdrawAction release={release} />}
-    </div>
+    <>
+      <div className="flex flex-wrap items-center justify-between gap-2 rounded border border-paper-300 bg-paper-50 px-3 py-2 text-sm text-ink-800">
+        <span>
+          Released as{" "}
+          <Link to={`/releases/${release.id}`} className="font-mono font-medium text-signal-800 underline">
+            {release.version}
+          </Link>{" "}
+          by {release.releasedBy.displayName} on{" "}
+          <span className="font-mono">{formatDateTime(release.releasedAt)}</span>
+          {release.withdrawn && (
+            <>
+              {" "}
+              · <Badge tone="fail">withdrawn</Badge> {release.withdrawn.reason}
+            </>
+          )}
+        </span>
+        {canWithdraw && <WithdrawAction release={release} />}
+      </div>
+      <VerificationEvidence releaseId={release.id} />
+    </>
   );
 }
 

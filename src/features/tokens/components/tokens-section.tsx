@@ -100,7 +100,13 @@ function CreateTokenForm({ onCreated }: { onCreated: (c: CreatedToken) => void }
       <div className="w-56">
         <Field
           label="Scope"
-          hint={scope === "read" ? "Downloads only (GET)." : "Can also change things, as your roles allow."}
+          hint={
+            scope === "read"
+              ? "Downloads only (GET)."
+              : scope === "verify"
+                ? "Downloads, plus posting verification runs."
+                : "Can also change things, as your roles allow."
+          }
         >
           {({ id, describedBy }) => (
             <select
@@ -111,6 +117,7 @@ function CreateTokenForm({ onCreated }: { onCreated: (c: CreatedToken) => void }
               onChange={(e) => setScope(e.target.value as TokenScope)}
             >
               <option value="read">read (recommended)</option>
+              <option value="verify">verify</option>
               <option value="read-write">read-write</option>
             </select>
           )}
