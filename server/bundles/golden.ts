@@ -5,16 +5,24 @@
  * tables, datapath and content hash always give the same files.
  */
 import { exactAccumulate, outputStage } from "../../shared/dsp/bit-true";
-import { resolveDatapath, type DatapathSettings, type ResolvedDatapath } from "../../shared/dsp/datapath";
-import { makeStimulus, type StimulusScenario, type StimulusTarget } from "../../shared/dsp/stimulus";
+import {
+  resolveDatapath,
+  SCENARIO_MAX_MACS,
+  SCENARIO_NOISE_RMS,
+  scenarioShape,
+  UNIT_IMPULSE,
+  type DatapathSettings,
+  type ResolvedDatapath,
+} from "../../shared/dsp/datapath";
+import { makeStimulus, type StimulusScenario } from "../../shared/dsp/stimulus";
 import type { ComplexSignal } from "../../shared/dsp/types";
 import { hexWord } from "../../shared/exports/words";
 import { impulseSet, randomFullScaleSet, roundingSet, worstCaseSet, type SetStimulus } from "./vector-sets";
 
-/** At most this many multiply-accumulates per golden run (measured: 2.0 s for 65,536 complex taps on one core here). */
-export const GOLDEN_MAX_MACS = 200_000_000;
+/** At most this many multiply-accumulates per golden run (shared/dsp/datapath.ts SCENARIO_MAX_MACS). */
+export const GOLDEN_MAX_MACS = SCENARIO_MAX_MACS;
 /** Complex noise RMS relative to full scale in every golden stimulus. */
-export const GOLDEN_NOISE_RMS = 0.05;
+export const GOLDEN_NOISE_RMS = SCENARIO_NOISE_RMS;
 
 /** What the golden vectors need to know. */
 export interface GoldenInput {
@@ -101,28 +109,9 @@ export function hexLines(s: { re: ArrayLike<number>; im: ArrayLike<number> }, bi
   return out;
 }
 
-// A filter's stimulus echoes a unit impulse, so the expected output shows the impulse response in noise.
-const IMPULSE: ComplexSignal = { re: Float64Array.of(1), im: Float64Array.of(0) };
-
-function scenarioShape(kind: GoldenInput["kind"], waveformLength: number, filterLength: number) {
-  // Two targets, the second weaker and overlapping the first's tail, plus room for the filter to ring out.
-  // The release waits for this inside its transaction: bound the multiply-accumulates (length × taps).
-  const budget = Math.max(256, Math.floor(GOLDEN_MAX_MACS / Math.max(1, filterLength)));
-  const length = Math.min(2 * waveformLength + filterLength + 32, 65_536, budget);
-  const second = Math.min(
-    length - 1,
-    8 + Math.max(1, Math.floor(waveformLength / 2)) + (kind === "filter" ? 24 : 0),
-  );
-  const targets: StimulusTarget[] = [
-    { delay: 8, amplitude: 0.5, phaseRad: 0 },
-    { delay: second, amplitude: 0.25, phaseRad: Math.PI / 3 },
-  ];
-  return { length, targets };
-}
-
 /** Builds every vector set's files and their summary. */
 export function buildGolden(input: GoldenInput): { files: GoldenFile[]; summary: GoldenSummary } {
-  const waveform = input.kind === "waveform" ? input.waveform : IMPULSE;
+  const waveform = input.kind === "waveform" ? input.waveform : UNIT_IMPULSE;
   if (!waveform)
     throw new RangeError("a waveform design needs its transmit waveform for the golden stimulus");
   const nh = input.codes.re.length;

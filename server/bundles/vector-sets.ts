@@ -179,8 +179,8 @@ export function randomFullScaleSet(
   };
 }
 
-/** The m of each tie target per component (consecutive m alternate the quotient's parity, signs both). */
-const TIE_QUOTIENTS = [0n, -1n, 1n, -2n, 2n, -3n, 3n, -4n];
+/** The m of each tie target per component: q = (G'−1)/2 + G'·m then takes both signs and both parities. */
+const TIE_QUOTIENTS = [0n, -1n, 1n, -2n];
 
 /**
  * Inputs whose accumulator lands exactly halfway between two output codes (acc ≡ 2^(s−1) mod 2^s), on I and
