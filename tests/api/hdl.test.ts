@@ -12,6 +12,8 @@ import { barker13, signedIn } from "./lifecycle-helpers";
 import { bundleOf, releasedDesign, unzipToTemp } from "./bundles-helpers";
 
 const t = useApiTestDatabase();
+// Simulations on a loaded 2-core CI machine: generous limits (speed is measured in docs/benchmarks.md).
+const SIM_TIMEOUT = 300_000;
 
 const has = (tool: string) => {
   try {
@@ -157,18 +159,22 @@ describe("bundle HDL: self-checking testbenches and the reference FIR", () => {
   beforeAll(async () => {
     barker = await bundle(barkerDatapath, "1.0.0");
     lfm = await bundle(shortLfm, "1.0.1");
-  });
+  }, 240_000);
   afterAll(() => {
     barker?.cleanup();
     lfm?.cleanup();
   });
 
-  it("the datapath in the manifest: rule accumulator, required width one below it, shift = accumulator − output", () => {
-    // Σ|ĥ| = 13·2047/2048, so the rule gives 12 + 12 + ⌈log2 12.99⌉ = 28 bits; the extreme
-    // 2047·(9·2048 + 4·2047) = 54,491,140 (9 chips +1, 4 chips −1) is below 2^26, so 27 bits hold it.
-    expect(barker.dp).toMatchObject({ accumulatorBits: 28, accumulatorRequiredBits: 27, outputShift: 12 });
-    expect(lfm.dp.outputShift).toBe(12);
-  });
+  it(
+    "the datapath in the manifest: rule accumulator, required width one below it, shift = accumulator − output",
+    () => {
+      // Σ|ĥ| = 13·2047/2048, so the rule gives 12 + 12 + ⌈log2 12.99⌉ = 28 bits; the extreme
+      // 2047·(9·2048 + 4·2047) = 54,491,140 (9 chips +1, 4 chips −1) is below 2^26, so 27 bits hold it.
+      expect(barker.dp).toMatchObject({ accumulatorBits: 28, accumulatorRequiredBits: 27, outputShift: 12 });
+      expect(lfm.dp.outputShift).toBe(12);
+    },
+    SIM_TIMEOUT,
+  );
 
   it.skipIf(!ICARUS)(
     "Icarus: the reference passes every set, and the captured output equals expected.txt line for line",
@@ -191,19 +197,24 @@ describe("bundle HDL: self-checking testbenches and the reference FIR", () => {
         }
       }
     },
+    SIM_TIMEOUT,
   );
 
-  it.skipIf(!ICARUS)("Icarus: one accumulator bit short of the required width fails worst-case", () => {
-    const v = verdicts(runVerilog(barker, verilogEdits.accumulatorShort(barker)));
-    expect(v.overall).toBe("FAIL");
-    // The first extreme sits at output Nh − 1 of the worst-case set.
-    const idx = barker.taps - 1;
-    const want = expectedLines(barker, "worst-case")[idx];
-    expect(v.sets.get("worst-case")).toMatch(
-      new RegExp(`^FAIL index ${idx} got -?\\d+ -?\\d+ expected ${want}$`),
-    );
-    expect(v.sets.get("scenario")).toMatch(/^PASS/);
-  });
+  it.skipIf(!ICARUS)(
+    "Icarus: one accumulator bit short of the required width fails worst-case",
+    () => {
+      const v = verdicts(runVerilog(barker, verilogEdits.accumulatorShort(barker)));
+      expect(v.overall).toBe("FAIL");
+      // The first extreme sits at output Nh − 1 of the worst-case set.
+      const idx = barker.taps - 1;
+      const want = expectedLines(barker, "worst-case")[idx];
+      expect(v.sets.get("worst-case")).toMatch(
+        new RegExp(`^FAIL index ${idx} got -?\\d+ -?\\d+ expected ${want}$`),
+      );
+      expect(v.sets.get("scenario")).toMatch(/^PASS/);
+    },
+    SIM_TIMEOUT,
+  );
 
   it.skipIf(!ICARUS)(
     "Icarus: reversed taps fail impulse on the asymmetric Barker table, at the first asymmetric tap",
@@ -212,6 +223,7 @@ describe("bundle HDL: self-checking testbenches and the reference FIR", () => {
       expect(v.overall).toBe("FAIL");
       expect(v.sets.get("impulse")).toMatch(reversedMismatch(barker));
     },
+    SIM_TIMEOUT,
   );
 
   it.skipIf(!ICARUS)(
@@ -223,6 +235,7 @@ describe("bundle HDL: self-checking testbenches and the reference FIR", () => {
         expect(v.sets.get("rounding")).toMatch(/^FAIL index \d+ got -?\d+ -?\d+ expected -?\d+ -?\d+$/);
       }
     },
+    SIM_TIMEOUT,
   );
 
   it.skipIf(!GHDL)(
@@ -248,5 +261,6 @@ describe("bundle HDL: self-checking testbenches and the reference FIR", () => {
       expect(floor.sets.get("rounding")).toMatch(/^FAIL index \d+/);
       expect(floor.overall).toBe("FAIL");
     },
+    SIM_TIMEOUT,
   );
 });
