@@ -58,16 +58,19 @@ export function solveExact(c: readonly number[], target: bigint, lo: number, hi:
   const idx = c.map((_, j) => j).filter((j) => c[j] !== 0);
   if (idx.length === 0) return target === 0n ? c.map(() => 0) : null;
   idx.sort((a, b) => Math.abs(c[b]!) - Math.abs(c[a]!) || a - b);
-  // The finishing pair: among the 24 smallest, the pair of least gcd (then least magnitude).
+  // The finishing pair: among the 24 smallest, the pair of least gcd, then of least magnitude.
   const small = idx.slice(-24);
   let pair: [number, number] | null = null;
   let best = 0n;
+  let bestSize = 0;
   for (let a = 0; a < small.length; a++)
     for (let b = a + 1; b < small.length; b++) {
       const g = gcd(BigInt(c[small[a]!]!), BigInt(c[small[b]!]!));
-      if (pair === null || g < best) {
+      const size = Math.max(Math.abs(c[small[a]!]!), Math.abs(c[small[b]!]!));
+      if (pair === null || g < best || (g === best && size < bestSize)) {
         pair = [small[a]!, small[b]!];
         best = g;
+        bestSize = size;
       }
     }
   const x = c.map(() => 0);
