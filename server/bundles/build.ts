@@ -29,9 +29,11 @@ import { renderReportHtml } from "../reports/render-html";
 import { decodeValues } from "../services/materialize";
 import type { Tx } from "../services/designs";
 import { buildGolden } from "./golden";
+import { buildHdl, HDL_PATHS } from "./hdl";
 import {
   BUNDLE_SCHEMA,
   BUNDLE_SCHEMA_VERSION,
+  manifestDatapath,
   provenanceOf,
   TRANSMIT_CAUTION,
   type BundleManifest,
@@ -235,6 +237,7 @@ export async function buildReleaseBundle(tx: Executor, input: BuildReleaseInput)
       tapOrder: TAP_ORDER,
       provenance: provenanceOf(t.source as Record<string, unknown>),
       exports,
+      datapath: null,
     });
   }
 
@@ -249,12 +252,22 @@ export async function buildReleaseBundle(tx: Executor, input: BuildReleaseInput)
     codes: { re: filt.q.re, im: filt.q.im },
     wordLength: filt.q.spec.wordLength,
     signed: filt.q.spec.signed,
-    rounding: filt.q.spec.rounding,
-    overflow: filt.q.spec.overflow,
+    datapath: content.datapath,
     inputBits: content.inputBits,
     contentHash,
   });
   files.push(...golden.files);
+  const dp = golden.summary.datapath;
+  const filterTable = tables.find((x) => x.role === filterRole);
+  if (filterTable) filterTable.datapath = manifestDatapath(dp);
+  for (const f of buildHdl({
+    title: `${rev.projectSlug}/${rev.designName} ${input.version}, table ${filterRole}`,
+    contentHash,
+    codes: { re: filt.q.re, im: filt.q.im },
+    datapath: dp,
+    sets: golden.summary.sets,
+  }))
+    files.push({ path: f.path, bytes: enc.encode(f.text) });
 
   const header = {
     project: rev.projectName,
@@ -297,26 +310,12 @@ export async function buildReleaseBundle(tx: Executor, input: BuildReleaseInput)
     tables,
     templates: templates.map((t) => ({ id: t.id, name: t.name, version: t.version, kind: t.kind })),
     golden: {
-      scenario: "golden/scenario.json",
+      summary: "golden/sets.json",
       filterTable: filterRole,
-      stimulus: {
-        text: golden.scenario.files.stimulusText,
-        hex: golden.scenario.files.stimulusHex,
-        length: golden.scenario.stimulus.length,
-        bits: golden.scenario.stimulus.inputBits,
-        seed: golden.scenario.stimulus.seed,
-      },
-      expected: {
-        text: golden.scenario.files.expectedText,
-        hex: golden.scenario.files.expectedHex,
-        length: golden.scenario.filter.outputLength,
-        bits: golden.scenario.filter.outputBits,
-      },
-      outputShift: golden.scenario.filter.outputShift,
-      rounding: golden.scenario.filter.rounding,
-      overflow: golden.scenario.filter.overflow,
-      overflowCount: golden.scenario.filter.overflowCount,
+      seed: golden.summary.scenario.seed,
+      sets: golden.summary.sets,
     },
+    hdl: HDL_PATHS,
     report: {
       html: "report/report.html",
       json: "report/report.json",

@@ -1,20 +1,28 @@
 /**
- * Golden vectors of a bundle: a seeded stimulus (shared/dsp/stimulus.ts) filtered by the bit-true model
- * (shared/dsp/bit-true.ts) with the receive table (waveforms) or the FIR table (filters). Pure: the same
- * tables and content hash always give the same files.
+ * Golden vectors of a bundle: five vector sets (the seeded scenario of shared/dsp/stimulus.ts and the sets of
+ * server/bundles/vector-sets.ts), each filtered by the bit-true datapath (shared/dsp/bit-true.ts,
+ * shared/dsp/datapath.ts) with the receive table (waveforms) or the FIR table (filters). Pure: the same
+ * tables, datapath and content hash always give the same files.
  */
-import { accumulatorGrowth } from "../../shared/dsp/accumulator";
-import { bitTrueFilter } from "../../shared/dsp/bit-true";
-import { makeStimulus, type StimulusScenario, type StimulusTarget } from "../../shared/dsp/stimulus";
-import type { ComplexSignal, OverflowMode, RoundingMode } from "../../shared/dsp/types";
+import { exactAccumulate, outputStage } from "../../shared/dsp/bit-true";
+import {
+  resolveDatapath,
+  SCENARIO_MAX_MACS,
+  SCENARIO_NOISE_RMS,
+  scenarioShape,
+  UNIT_IMPULSE,
+  type DatapathSettings,
+  type ResolvedDatapath,
+} from "../../shared/dsp/datapath";
+import { makeStimulus, type StimulusScenario } from "../../shared/dsp/stimulus";
+import type { ComplexSignal } from "../../shared/dsp/types";
 import { hexWord } from "../../shared/exports/words";
+import { impulseSet, randomFullScaleSet, roundingSet, worstCaseSet, type SetStimulus } from "./vector-sets";
 
-/** Widest output word written to the golden files (a 32-bit word is what firmware buses carry). */
-export const GOLDEN_MAX_OUTPUT_BITS = 32;
-/** At most this many multiply-accumulates per golden run (measured: 2.0 s for 65,536 complex taps on one core here). */
-export const GOLDEN_MAX_MACS = 200_000_000;
+/** At most this many multiply-accumulates per golden run (shared/dsp/datapath.ts SCENARIO_MAX_MACS). */
+export const GOLDEN_MAX_MACS = SCENARIO_MAX_MACS;
 /** Complex noise RMS relative to full scale in every golden stimulus. */
-export const GOLDEN_NOISE_RMS = 0.05;
+export const GOLDEN_NOISE_RMS = SCENARIO_NOISE_RMS;
 
 /** What the golden vectors need to know. */
 export interface GoldenInput {
@@ -27,35 +35,50 @@ export interface GoldenInput {
   codes: { re: ArrayLike<number>; im: ArrayLike<number> };
   wordLength: number;
   signed: boolean;
-  rounding: RoundingMode;
-  overflow: OverflowMode;
+  /** The revision's datapath settings for this table. */
+  datapath: DatapathSettings;
   /** ADC width of the stimulus (the revision's inputBits). */
   inputBits: number;
   /** Seeds the noise, so each content gets its own but a repeatable stimulus. */
   contentHash: string;
 }
 
-/** Everything golden/scenario.json states, beyond the stimulus scenario itself. */
-export interface GoldenScenario {
+/** Names of the vector sets, in the order the bundle and the testbenches run them. */
+export const VECTOR_SET_NAMES = [
+  "scenario",
+  "impulse",
+  "worst-case",
+  "rounding",
+  "random-full-scale",
+] as const;
+export type VectorSetName = (typeof VECTOR_SET_NAMES)[number];
+
+/** One vector set as the manifest and golden/sets.json describe it. */
+export interface GoldenSet {
+  name: VectorSetName;
+  description: string;
+  stimulus: { text: string; hex: string; length: number; bits: number };
+  expected: { text: string; hex: string; length: number; bits: number };
+  /** Largest |accumulator| this set reaches, exactly (decimal text: it may pass 2^53). */
+  maxAbsAccumulator: string;
+  /** Largest |accumulator| any input can reach (decimal text). */
+  accumulatorBound: string;
+  /** Output components that saturated or wrapped; accumulator components that wrapped. */
+  overflowCount: number;
+  accumulatorOverflowCount: number;
+}
+
+/** Everything golden/sets.json states. */
+export interface GoldenSummary {
   schema: "tapwright-golden";
-  schemaVersion: "1.0";
+  schemaVersion: "2.0";
   tapOrder: string;
-  stimulus: StimulusScenario;
-  filter: {
-    table: string;
-    length: number;
-    coefficientBits: number;
-    coefficientSigned: boolean;
-    accumulatorBits: number;
-    outputShift: number;
-    outputBits: number;
-    rounding: RoundingMode;
-    overflow: OverflowMode;
-    overflowCount: number;
-    outputLength: number;
-    description: string;
-  };
-  files: Record<"stimulusText" | "stimulusHex" | "expectedText" | "expectedHex", string>;
+  filter: { table: string; length: number; coefficientBits: number; coefficientSigned: boolean };
+  datapath: ResolvedDatapath;
+  computation: string;
+  feeding: string;
+  scenario: StimulusScenario;
+  sets: GoldenSet[];
   fileFormat: { text: string; hex: string };
 }
 
@@ -86,94 +109,105 @@ export function hexLines(s: { re: ArrayLike<number>; im: ArrayLike<number> }, bi
   return out;
 }
 
-// A filter's stimulus echoes a unit impulse, so the expected output shows the impulse response in noise.
-const IMPULSE: ComplexSignal = { re: Float64Array.of(1), im: Float64Array.of(0) };
-
-function scenarioShape(kind: GoldenInput["kind"], waveformLength: number, filterLength: number) {
-  // Two targets, the second weaker and overlapping the first's tail, plus room for the filter to ring out.
-  // The release waits for this inside its transaction: bound the multiply-accumulates (length × taps).
-  const budget = Math.max(256, Math.floor(GOLDEN_MAX_MACS / Math.max(1, filterLength)));
-  const length = Math.min(2 * waveformLength + filterLength + 32, 65_536, budget);
-  const second = Math.min(
-    length - 1,
-    8 + Math.max(1, Math.floor(waveformLength / 2)) + (kind === "filter" ? 24 : 0),
-  );
-  const targets: StimulusTarget[] = [
-    { delay: 8, amplitude: 0.5, phaseRad: 0 },
-    { delay: second, amplitude: 0.25, phaseRad: Math.PI / 3 },
-  ];
-  return { length, targets };
-}
-
-/** Builds the golden files and their scenario. */
-export function buildGolden(input: GoldenInput): { files: GoldenFile[]; scenario: GoldenScenario } {
-  const waveform = input.kind === "waveform" ? input.waveform : IMPULSE;
+/** Builds every vector set's files and their summary. */
+export function buildGolden(input: GoldenInput): { files: GoldenFile[]; summary: GoldenSummary } {
+  const waveform = input.kind === "waveform" ? input.waveform : UNIT_IMPULSE;
   if (!waveform)
     throw new RangeError("a waveform design needs its transmit waveform for the golden stimulus");
-  const { length, targets } = scenarioShape(input.kind, waveform.re.length, input.codes.re.length);
+  const nh = input.codes.re.length;
+  const { length, targets } = scenarioShape(input.kind, waveform.re.length, nh);
+  const seed = goldenSeed(input.contentHash);
   const stimulus = makeStimulus({
     waveform,
     length,
     targets,
     noiseRms: GOLDEN_NOISE_RMS,
-    seed: goldenSeed(input.contentHash),
+    seed,
     inputBits: input.inputBits,
   });
   // An unsigned W-bit code is a non-negative signed (W+1)-bit code: same value, one more bit on the bus.
   const coefficientBits = input.signed ? input.wordLength : input.wordLength + 1;
-  const { worstCaseBits } = accumulatorGrowth(input.inputBits, coefficientBits, input.codes);
-  // Keep the top bits of the worst-case accumulator: the output can then never overflow.
-  const outputBits = Math.min(worstCaseBits, GOLDEN_MAX_OUTPUT_BITS);
-  const outputShift = worstCaseBits - outputBits;
-  const result = bitTrueFilter({
-    input: stimulus,
-    coefficients: input.codes,
-    outputShift,
-    rounding: input.rounding,
-    overflow: input.overflow,
-    outputBits,
-    inputBits: input.inputBits,
-    coefficientBits,
-  });
-  const enc = new TextEncoder();
-  const paths = {
-    stimulusText: "golden/stimulus.txt",
-    stimulusHex: "golden/stimulus.hex",
-    expectedText: "golden/expected.txt",
-    expectedHex: "golden/expected.hex",
-  };
-  const files: GoldenFile[] = [
-    { path: paths.stimulusText, bytes: enc.encode(decimalLines(stimulus)) },
-    { path: paths.stimulusHex, bytes: enc.encode(hexLines(stimulus, input.inputBits)) },
-    { path: paths.expectedText, bytes: enc.encode(decimalLines(result)) },
-    { path: paths.expectedHex, bytes: enc.encode(hexLines(result, outputBits)) },
-  ];
-  const scenario: GoldenScenario = {
-    schema: "tapwright-golden",
-    schemaVersion: "1.0",
-    tapOrder: "y[n] = Σ h[k]·x[n−k]",
-    stimulus: stimulus.scenario,
-    filter: {
-      table: input.filterRole,
-      length: input.codes.re.length,
-      coefficientBits,
-      coefficientSigned: true,
-      accumulatorBits: worstCaseBits,
-      outputShift,
-      outputBits,
-      rounding: input.rounding,
-      overflow: input.overflow,
-      overflowCount: result.overflowCount,
-      outputLength: result.re.length,
+  const dp = resolveDatapath(input.datapath, input.inputBits, input.codes, coefficientBits);
+  const budget = Math.max(256, Math.floor(GOLDEN_MAX_MACS / Math.max(1, nh)));
+  const stimuli: Record<VectorSetName, SetStimulus> = {
+    scenario: {
+      re: Array.from(stimulus.re),
+      im: Array.from(stimulus.im),
       description:
-        "Full convolution (Nx + Nh − 1 outputs) with exact complex integer multiply-accumulate: acc_I = Σ (hI·xI − hQ·xQ), acc_Q = Σ (hI·xQ + hQ·xI); then acc / 2^outputShift rounded with `rounding`, then `overflow` to a signed outputBits word.",
+        `The seeded radar scenario (golden/sets.json "scenario"): ${targets.length} targets ` +
+        `(amplitudes ${targets.map((t) => t.amplitude).join(", ")} of full scale) echoing the ${input.kind === "waveform" ? "transmit waveform" : "unit impulse"} ` +
+        `in complex noise of ${GOLDEN_NOISE_RMS} full-scale RMS, seed ${seed}.`,
     },
-    files: paths,
+    impulse: impulseSet(input.codes, dp),
+    "worst-case": worstCaseSet(input.codes, dp),
+    rounding: roundingSet(input.codes, dp),
+    "random-full-scale": randomFullScaleSet(
+      input.codes,
+      dp,
+      (seed + 1) % Number.MAX_SAFE_INTEGER,
+      Math.min(Math.max(4 * nh, 256), budget),
+    ),
+  };
+  const enc = new TextEncoder();
+  const files: GoldenFile[] = [];
+  const sets: GoldenSet[] = [];
+  for (const name of VECTOR_SET_NAMES) {
+    const x = stimuli[name];
+    const acc = exactAccumulate(x, input.codes);
+    const y = outputStage(acc, {
+      accumulatorBits: dp.accumulatorBits,
+      outputShift: dp.outputShift,
+      rounding: dp.outputRounding,
+      overflow: dp.outputOverflow,
+      outputBits: dp.outputBits,
+    });
+    const base = `golden/${name}`;
+    const set: GoldenSet = {
+      name,
+      description: x.description,
+      stimulus: {
+        text: `${base}/stimulus.txt`,
+        hex: `${base}/stimulus.hex`,
+        length: x.re.length,
+        bits: dp.inputBits,
+      },
+      expected: {
+        text: `${base}/expected.txt`,
+        hex: `${base}/expected.hex`,
+        length: y.re.length,
+        bits: dp.outputBits,
+      },
+      maxAbsAccumulator: y.maxAbsAccumulator,
+      accumulatorBound: dp.accumulatorBound,
+      overflowCount: y.overflowCount,
+      accumulatorOverflowCount: y.accumulatorOverflowCount,
+    };
+    files.push(
+      { path: set.stimulus.text, bytes: enc.encode(decimalLines(x)) },
+      { path: set.stimulus.hex, bytes: enc.encode(hexLines(x, dp.inputBits)) },
+      { path: set.expected.text, bytes: enc.encode(decimalLines(y)) },
+      { path: set.expected.hex, bytes: enc.encode(hexLines(y, dp.outputBits)) },
+    );
+    sets.push(set);
+  }
+  const summary: GoldenSummary = {
+    schema: "tapwright-golden",
+    schemaVersion: "2.0",
+    tapOrder: "y[n] = Σ h[k]·x[n−k]",
+    filter: { table: input.filterRole, length: nh, coefficientBits, coefficientSigned: true },
+    datapath: dp,
+    computation:
+      "Full convolution (Nx + Nh − 1 outputs) with exact complex integer multiply-accumulate: acc_I = Σ (hI·xI − hQ·xQ), acc_Q = Σ (hI·xQ + hQ·xI); " +
+      "the sum wraps to a signed accumulatorBits register (two's complement), then acc / 2^outputShift is rounded with outputRounding, then outputOverflow to a signed outputBits word.",
+    feeding:
+      "Each set starts from a cleared delay line (reset), feeds its stimulus samples and then Nh − 1 zero samples; output n belongs to input n (output k of the impulse set is h[k]).",
+    scenario: stimulus.scenario,
+    sets,
     fileFormat: {
-      text: "one sample per line: I and Q as signed decimal integers separated by one space, LF line ends",
-      hex: "one sample per line: I and Q as two's-complement words of ⌈bits/4⌉ upper-case hex digits separated by one space (IEEE 1364 $readmemh reads them as I0 Q0 I1 Q1 … into consecutive addresses)",
+      text: "one sample per line: I and Q as signed decimal integers separated by one space, LF line ends; lines starting with # are comments",
+      hex: "one sample per line: I and Q as two's-complement words of ⌈bits/4⌉ upper-case hex digits separated by one space (IEEE 1364 $readmemh reads them as I0 Q0 I1 Q1 … into consecutive addresses, zero-extended: sign-extend them yourself, see README.txt)",
     },
   };
-  files.push({ path: "golden/scenario.json", bytes: enc.encode(`${JSON.stringify(scenario, null, 2)}\n`) });
-  return { files, scenario };
+  files.push({ path: "golden/sets.json", bytes: enc.encode(`${JSON.stringify(summary, null, 2)}\n`) });
+  return { files, summary };
 }

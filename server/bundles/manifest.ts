@@ -1,14 +1,16 @@
 /**
- * The bundle manifest, format "tapwright-bundle" 1.0 (docs/bundle-format.md field by field;
+ * The bundle manifest, format "tapwright-bundle" 2.0 (docs/bundle-format.md field by field;
  * docs/schemas/manifest.schema.json is its JSON Schema and travels inside every bundle).
  */
+import type { RoundingMode } from "../../shared/dsp/types";
 import type { FixedPointSpec } from "../../shared/dsp/types";
-import type { GoldenScenario } from "./golden";
+import type { ResolvedDatapath } from "../../shared/dsp/datapath";
+import type { GoldenSet } from "./golden";
 
 /** Schema name written into every manifest. */
 export const BUNDLE_SCHEMA = "tapwright-bundle";
 /** Bumped on any change of the manifest or of the bundle layout (history in docs/bundle-format.md). */
-export const BUNDLE_SCHEMA_VERSION = "1.0";
+export const BUNDLE_SCHEMA_VERSION = "2.0";
 
 /** A person as a manifest names them. */
 export interface ManifestPerson {
@@ -45,6 +47,25 @@ export interface ManifestTable {
   provenance: ManifestProvenance;
   /** The rendered files of this table, one per template. */
   exports: { template: string; path: string }[];
+  /** The datapath the golden vectors prove (the receive or FIR table); null for the transmit table. */
+  datapath: ManifestDatapath | null;
+}
+
+/** A table's datapath as the manifest states it (shared/dsp/datapath.ts ResolvedDatapath). */
+export interface ManifestDatapath {
+  inputBits: number;
+  accumulatorBits: number;
+  outputBits: number;
+  outputShift: number;
+  outputRounding: RoundingMode;
+  outputOverflow: "saturate" | "wrap";
+  /** True when the author set the width or the shift; false = derived. */
+  accumulatorBitsSet: boolean;
+  outputShiftSet: boolean;
+  accumulatorRuleBits: number;
+  accumulatorRequiredBits: number;
+  /** Largest |accumulator| any input can reach (decimal text). */
+  accumulatorBound: string;
 }
 
 /** One file of the bundle. */
@@ -81,14 +102,17 @@ export interface BundleManifest {
   tables: ManifestTable[];
   templates: { id: string; name: string; version: number; kind: "text" | "binary" }[];
   golden: {
-    scenario: string;
+    /** golden/sets.json: the datapath, the scenario's parameters and every set. */
+    summary: string;
     filterTable: string;
-    stimulus: { text: string; hex: string; length: number; bits: number; seed: number };
-    expected: { text: string; hex: string; length: number; bits: number };
-    outputShift: number;
-    rounding: GoldenScenario["filter"]["rounding"];
-    overflow: GoldenScenario["filter"]["overflow"];
-    overflowCount: number;
+    /** Noise seed of the scenario (the random set uses seed + 1). */
+    seed: number;
+    sets: GoldenSet[];
+  };
+  /** The HDL of the bundle: testbenches and the reference FIR, Verilog-2005 and VHDL-2008. */
+  hdl: {
+    verilog: { readonly testbench: string; readonly reference: string };
+    vhdl: { readonly testbench: string; readonly reference: string };
   };
   report: { html: string; json: string; generatedAt: string; softwareVersion: string };
   transmitCaution: string | null;
@@ -113,4 +137,21 @@ export function provenanceOf(source: Record<string, unknown>): ManifestProvenanc
     };
   if (source.kind === "matched-filter") return { method: "derived", parameters: source };
   return { method: "generator", parameters: source };
+}
+
+/** The manifest's datapath entry of a resolved datapath. */
+export function manifestDatapath(dp: ResolvedDatapath): ManifestDatapath {
+  return {
+    inputBits: dp.inputBits,
+    accumulatorBits: dp.accumulatorBits,
+    outputBits: dp.outputBits,
+    outputShift: dp.outputShift,
+    outputRounding: dp.outputRounding,
+    outputOverflow: dp.outputOverflow,
+    accumulatorBitsSet: dp.accumulatorBitsSet,
+    outputShiftSet: dp.outputShiftSet,
+    accumulatorRuleBits: dp.accumulatorRuleBits,
+    accumulatorRequiredBits: dp.accumulatorRequiredBits,
+    accumulatorBound: dp.accumulatorBound,
+  };
 }

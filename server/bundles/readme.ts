@@ -50,18 +50,60 @@ export function renderReadme(m: BundleManifest): string {
     for (const e of t.exports) out.push(`  ${e.path}`);
   }
   out.push("");
-  out.push("Golden vectors", "--------------");
+  out.push("Datapath and vector sets", "------------------------");
   const g = m.golden;
+  const dp = m.tables.find((t) => t.role === g.filterTable)?.datapath;
+  if (dp)
+    out.push(
+      wrap(
+        `${g.filterTable}: ${dp.inputBits}-bit signed input, ${dp.accumulatorBits}-bit accumulator ` +
+          `(${dp.accumulatorBitsSet ? "set by the author" : "the worst-case rule"}; ${dp.accumulatorRequiredBits} bits hold ` +
+          `the largest |accumulator| ${dp.accumulatorBound}), output ${dp.outputBits} bits after a right shift of ` +
+          `${dp.outputShift} (${dp.outputShiftSet ? "set by the author" : "accumulator bits minus output bits"}), ` +
+          `rounding ${dp.outputRounding}, overflow ${dp.outputOverflow}.`,
+      ),
+      "",
+    );
+  for (const set of g.sets) {
+    out.push(
+      `  ${set.name}: ${set.stimulus.text} (${set.stimulus.length} samples) -> ${set.expected.text} ` +
+        `(${set.expected.length} samples); largest |acc| ${set.maxAbsAccumulator} of ${set.accumulatorBound}`,
+    );
+    out.push(wrap(set.description, 72).replace(/^/gm, "    "));
+  }
+  out.push("");
   out.push(
     wrap(
-      `${g.stimulus.text} (and .hex): ${g.stimulus.length} stimulus samples, ${g.stimulus.bits}-bit signed I/Q, ` +
-        `seed ${g.stimulus.seed}. ${g.expected.text} (and .hex): ${g.expected.length} outputs of the bit-true ` +
-        `filter with the ${g.filterTable} table, ${g.expected.bits}-bit signed: the exact accumulator shifted ` +
-        `right by ${g.outputShift} with rounding ${g.rounding}, then ${g.overflow} (${g.overflowCount} overflowed). ` +
-        `${g.scenario} states everything needed to rebuild them.`,
+      `Text files: one sample a line, "I Q" signed decimal integers; lines starting with # are comments. ` +
+        `Hex files: the same as two's-complement words for $readmemh (I0 Q0 I1 Q1 ...). ${g.summary} states ` +
+        `the datapath, the scenario's parameters and every set. Feed each set from a cleared delay line, ` +
+        `then Nh - 1 zeros: output n belongs to input n.`,
     ),
   );
-  out.push("");
+  out.push(
+    wrap(
+      "$readmemh fills each word zero-extended: F971 read into an 18-bit signed variable becomes 63857, " +
+        "not -1679. Read into a memory of exactly the word width W and sign-extend explicitly where you widen it:",
+    ),
+    "    reg [W-1:0] mem [0:2*N-1];",
+    "    wire signed [A-1:0] v = {{(A-W){mem[k][W-1]}}, mem[k]};",
+    "",
+  );
+  out.push("HDL", "---");
+  out.push(
+    `  ${m.hdl.verilog.testbench}   self-checking testbench, Verilog-2005`,
+    `  ${m.hdl.verilog.reference}  reference FIR of the ${g.filterTable} table, Verilog-2005`,
+    `  ${m.hdl.vhdl.testbench}  self-checking testbench, VHDL-2008`,
+    `  ${m.hdl.vhdl.reference} reference FIR, VHDL-2008`,
+    wrap(
+      "Run from this folder: iverilog -g2005 -o tw_tb.vvp hdl/tw_tb.v hdl/tw_fir.v && vvp tw_tb.vvp, or " +
+        "ghdl -a --std=08 hdl/tw_fir.vhd hdl/tw_tb.vhd && ghdl -e --std=08 tw_tb && ghdl -r --std=08 tw_tb. " +
+        "Put your design in place of tw_fir (ports: clk, rst synchronous active high, in_valid, in_i, in_q, " +
+        "out_valid, out_i, out_q). Each set prints PASS or FAIL with the first mismatch; the captured output " +
+        "goes to sim-<set>.txt, ready to upload as the set's simulation output.",
+    ),
+    "",
+  );
   out.push("Other files", "-----------");
   out.push(
     `  manifest.json         everything above, machine-readable (schema ${m.schema} ${m.schemaVersion})`,

@@ -5,6 +5,7 @@
  */
 import type { AnalysisReport, LimitCheck, PlotTrace, TableReport } from "../../shared/dsp/analysis";
 import type { ReportHeader } from "../../shared/schemas/analyses";
+import { datapathSection } from "./datapath-html";
 import { escapeHtml as e } from "./escape";
 import { db, plain, si } from "./format";
 import { LIMIT_METRIC, formatMetric, labelOf } from "./metrics";
@@ -361,6 +362,7 @@ ${metricsTable(report)}
 ${tablesTable(report)}
 <h2>Accumulator</h2>
 ${accumulatorText(report)}
+${datapathSection(report)}
 ${dopplerTable(report)}
 <h2>Plots</h2>
 ${plots(report)}

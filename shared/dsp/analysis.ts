@@ -11,6 +11,7 @@ import {
   type WaveformSource,
 } from "../schemas/analysis";
 import { accumulatorGrowth } from "./accumulator";
+import { datapathReport, type DatapathFigures } from "./datapath";
 import {
   compress,
   convolutionSize,
@@ -105,6 +106,8 @@ export interface AnalysisReport {
   plots: Record<string, PlotTrace>;
   /** Per table role: quantization error in LSB against the coefficient index. */
   coefficientErrorLsb?: Record<string, LsbTrace>;
+  /** The receive/FIR datapath and its figures (shared/dsp/datapath.ts); absent in older reports. */
+  datapath?: DatapathFigures;
   /** Filters: the bands the limits are judged over (Hz), for drawing the masks. */
   firBands?: { passbands: Band[]; stopbands: Band[] };
   definitions: Record<string, string>;
@@ -618,6 +621,7 @@ function analyzeWaveform(spec: WaveformSpec, progress: ProgressCallback): Analys
     sweep,
     plots,
     coefficientErrorLsb,
+    datapath: datapathReport({ ...spec, settings: spec.datapath, waveform: s, floatTaps: h, table: qh }),
     definitions: DEFINITIONS,
     measurement: {
       signal: envelopeOf ? "envelope" : "complex output",
@@ -700,6 +704,7 @@ function analyzeFilter(spec: FilterSpec, progress: ProgressCallback): AnalysisRe
     sweep,
     plots,
     coefficientErrorLsb: { fir: lsbTrace(taps, q) },
+    datapath: datapathReport({ ...spec, settings: spec.datapath, floatTaps: taps, table: q }),
     firBands: { passbands, stopbands },
     definitions: DEFINITIONS,
     warnings,

@@ -41,6 +41,8 @@ export interface BitTrueOptions {
   inputBits: number;
   /** Signed coefficient width, 2..32: every coefficient code must fit. */
   coefficientBits: number;
+  /** Signed accumulator width of the datapath (absent = wide enough for any sum). */
+  accumulatorBits?: number;
 }
 
 /** Output codes of the bit-true filter and how they were computed. */
@@ -49,6 +51,10 @@ export interface BitTrueResult {
   im: Float64Array;
   /** Output components (I and Q counted separately) that exceeded `outputBits` before saturate/wrap. */
   overflowCount: number;
+  /** Accumulator components that did not fit `accumulatorBits` and wrapped. */
+  accumulatorOverflowCount: number;
+  /** Largest |exact accumulator| over I and Q (decimal text). */
+  maxAbsAccumulator: string;
   /** Worst-case accumulator width for the declared input and coefficient widths (accumulatorGrowth). */
   accumulatorBits: number;
   exactPath: "float64" | "bigint";
@@ -162,6 +168,120 @@ function convolveBigInt(x: IntegerSignal, h: IntegerSignal, ny: number): { re: b
   return { re, im };
 }
 
+/**
+ * The exact accumulators of the full convolution, acc[n] = Σ_k h[k]·x[n−k] on I and Q (no width limit).
+ * float64 when the bound M·S ≤ 2^53 makes every sum exact (see the file comment), BigInt otherwise.
+ * Kept apart from the output stage so a faster exact method (e.g. a number-theoretic transform) can
+ * replace its inside without touching rounding, saturation or the golden files.
+ */
+export type ExactAccumulators =
+  { path: "float64"; re: Float64Array; im: Float64Array } | { path: "bigint"; re: bigint[]; im: bigint[] };
+
+/** Runs the exact multiply-accumulate of a complex integer FIR over the full convolution. */
+export function exactAccumulate(input: IntegerSignal, coefficients: IntegerSignal): ExactAccumulators {
+  checkSignal("input", input);
+  checkSignal("coefficients", coefficients);
+  const ny = input.re.length + coefficients.re.length - 1;
+  if (ny > MAX_SAMPLES)
+    throw new RangeError(`output would have ${ny} samples; at most ${MAX_SAMPLES} are allowed`);
+  const bound = BigInt(largestMagnitude(input)) * absoluteCodeSum(coefficients);
+  if (bound <= BigInt(FLOAT_EXACT_LIMIT)) {
+    const re = new Float64Array(ny);
+    const im = new Float64Array(ny);
+    convolveFloat(input, coefficients, re, im);
+    return { path: "float64", re, im };
+  }
+  return { path: "bigint", ...convolveBigInt(input, coefficients, ny) };
+}
+
+/** The output stage of the datapath: accumulator width, shift, rounding, overflow, output width. */
+export interface OutputStageOptions {
+  /** Signed accumulator width: sums wrap modulo 2^accumulatorBits as a two's-complement register does (absent = no limit). */
+  accumulatorBits?: number;
+  outputShift: number;
+  rounding: RoundingMode;
+  overflow: OverflowMode;
+  outputBits: number;
+}
+
+/** What the output stage produced and met. */
+export interface OutputStageResult {
+  re: Float64Array;
+  im: Float64Array;
+  /** Output components (I and Q counted separately) that exceeded `outputBits` before saturate/wrap. */
+  overflowCount: number;
+  /** Accumulator components whose exact value does not fit `accumulatorBits` (they wrapped). */
+  accumulatorOverflowCount: number;
+  /** Largest |exact accumulator| over I and Q, before any wrap (decimal text: it may pass 2^53). */
+  maxAbsAccumulator: string;
+}
+
+/** acc (exact) → wrapped to the accumulator, shifted, rounded, saturated or wrapped to the output width. */
+export function outputStage(acc: ExactAccumulators, opts: OutputStageOptions): OutputStageResult {
+  const { accumulatorBits, outputShift, rounding, overflow, outputBits } = opts;
+  if (accumulatorBits !== undefined) checkInteger("accumulatorBits", accumulatorBits, 2, 256);
+  checkInteger("outputBits", outputBits, 2, 53);
+  checkInteger("outputShift", outputShift, 0, 256);
+  checkRoundingMode("rounding", rounding);
+  checkOverflowMode("overflow", overflow);
+  const ny = acc.re.length;
+  const { min, max } = integerRange(outputBits, true);
+  const re = new Float64Array(ny);
+  const im = new Float64Array(ny);
+  let overflowCount = 0;
+  let accumulatorOverflowCount = 0;
+  let maxAbs = 0n;
+  const accMax = accumulatorBits === undefined ? null : (1n << BigInt(accumulatorBits - 1)) - 1n;
+  // float64 fast path: exact when no wrap is possible (|acc| ≤ 2^53 and the accumulator holds it).
+  if (acc.path === "float64") {
+    let m = 0;
+    for (const y of [acc.re, acc.im]) for (let n = 0; n < ny; n++) m = Math.max(m, Math.abs(y[n]!));
+    maxAbs = BigInt(m);
+  }
+  const floatOk = acc.path === "float64" && (accMax === null || maxAbs <= accMax);
+  if (floatOk) {
+    const code = ROUNDING_CODE[rounding];
+    const step = 2 ** -outputShift; // exact: |acc| ≤ 2^53 and a power-of-two scale loses no bits
+    for (const [src, dst] of [
+      [acc.re as Float64Array, re],
+      [acc.im as Float64Array, im],
+    ] as const) {
+      for (let n = 0; n < ny; n++) {
+        let c = roundByCode(src[n]! * step, code);
+        if (c > max || c < min) {
+          overflowCount++;
+          c = overflow === "saturate" ? (c > max ? max : min) : wrapInteger(c, outputBits, true);
+        }
+        dst[n] = c + 0; // + 0 turns −0 into 0
+      }
+    }
+  } else {
+    const bMin = BigInt(min);
+    const bMax = BigInt(max);
+    for (const [src, dst] of [
+      [acc.re, re],
+      [acc.im, im],
+    ] as const) {
+      for (let n = 0; n < ny; n++) {
+        let a = typeof src[n] === "bigint" ? (src[n] as bigint) : BigInt(src[n] as number);
+        const mag = a < 0n ? -a : a;
+        if (mag > maxAbs) maxAbs = mag;
+        if (accMax !== null && (a > accMax || a < -accMax - 1n)) {
+          accumulatorOverflowCount++;
+          a = BigInt.asIntN(accumulatorBits!, a);
+        }
+        let c = shiftRoundBigInt(a, outputShift, rounding);
+        if (c > bMax || c < bMin) {
+          overflowCount++;
+          c = overflow === "saturate" ? (c > bMax ? bMax : bMin) : BigInt.asIntN(outputBits, c);
+        }
+        dst[n] = Number(c);
+      }
+    }
+  }
+  return { re, im, overflowCount, accumulatorOverflowCount, maxAbsAccumulator: maxAbs.toString() };
+}
+
 /** Runs the bit-true complex FIR; outputs are exact integer codes of `outputBits`-bit signed words. */
 export function bitTrueFilter(opts: BitTrueOptions): BitTrueResult {
   if (opts == null || typeof opts !== "object") throw new TypeError("options must be an object");
@@ -177,50 +297,15 @@ export function bitTrueFilter(opts: BitTrueOptions): BitTrueResult {
   checkSignal("coefficients", coefficients);
   checkSignedCodes("input.re", input.re, inputBits);
   checkSignedCodes("input.im", input.im, inputBits);
-  const ny = input.re.length + coefficients.re.length - 1;
-  if (ny > MAX_SAMPLES)
-    throw new RangeError(`output would have ${ny} samples; at most ${MAX_SAMPLES} are allowed`);
   // Also checks the coefficient codes against coefficientBits.
   const { worstCaseBits } = accumulatorGrowth(inputBits, coefficientBits, coefficients);
-
-  const { min, max } = integerRange(outputBits, true);
-  const re = new Float64Array(ny);
-  const im = new Float64Array(ny);
-  let overflowCount = 0;
-  const bound = BigInt(largestMagnitude(input)) * absoluteCodeSum(coefficients);
-  const exactPath = bound <= BigInt(FLOAT_EXACT_LIMIT) ? "float64" : "bigint";
-
-  if (exactPath === "float64") {
-    convolveFloat(input, coefficients, re, im);
-    const code = ROUNDING_CODE[rounding];
-    const step = 2 ** -outputShift; // exact: |acc| ≤ 2^53 and a power-of-two scale loses no bits
-    for (const y of [re, im]) {
-      for (let n = 0; n < ny; n++) {
-        let c = roundByCode(y[n]! * step, code);
-        if (c > max || c < min) {
-          overflowCount++;
-          c = overflow === "saturate" ? (c > max ? max : min) : wrapInteger(c, outputBits, true);
-        }
-        y[n] = c + 0; // + 0 turns −0 into 0
-      }
-    }
-  } else {
-    const acc = convolveBigInt(input, coefficients, ny);
-    const bMin = BigInt(min);
-    const bMax = BigInt(max);
-    for (const [src, dst] of [
-      [acc.re, re],
-      [acc.im, im],
-    ] as const) {
-      for (let n = 0; n < ny; n++) {
-        let c = shiftRoundBigInt(src[n]!, outputShift, rounding);
-        if (c > bMax || c < bMin) {
-          overflowCount++;
-          c = overflow === "saturate" ? (c > bMax ? bMax : bMin) : BigInt.asIntN(outputBits, c);
-        }
-        dst[n] = Number(c);
-      }
-    }
-  }
-  return { re, im, overflowCount, accumulatorBits: worstCaseBits, exactPath };
+  const acc = exactAccumulate(input, coefficients);
+  const out = outputStage(acc, {
+    accumulatorBits: opts.accumulatorBits,
+    outputShift,
+    rounding,
+    overflow,
+    outputBits,
+  });
+  return { ...out, accumulatorBits: worstCaseBits, exactPath: acc.path };
 }

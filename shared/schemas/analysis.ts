@@ -37,6 +37,30 @@ export const FixedPointSpecSchema = z.strictObject({
   overflow: z.enum(["saturate", "wrap"]).default("saturate"),
 });
 
+/**
+ * The receive/FIR datapath the firmware builds (shared/dsp/datapath.ts resolves it): accumulator width
+ * (absent = the worst-case rule of shared/dsp/accumulator.ts), output width, output shift (absent =
+ * accumulator bits − output bits, i.e. keep the top bits), and the output stage's rounding and overflow.
+ * The input (ADC) width is the spec's `inputBits`.
+ */
+export const DatapathSpecSchema = z.object({
+  accumulatorBits: z.number().int().min(2, "at least 2 bits").max(96, "at most 96 bits").optional(),
+  outputBits: z.number().int().min(2, "at least 2 bits").max(32, "at most 32 bits").default(16),
+  outputShift: z.number().int().min(0, "at least 0").max(128, "at most 128").optional(),
+  outputRounding: z
+    .enum(["nearest-away", "nearest-even", "nearest-up", "floor", "ceiling", "toward-zero"])
+    .default("nearest-even"),
+  outputOverflow: z.enum(["saturate", "wrap"]).default("saturate"),
+});
+/** The datapath when the author sets nothing. */
+export const DATAPATH_DEFAULTS = {
+  outputBits: 16,
+  outputRounding: "nearest-even",
+  outputOverflow: "saturate",
+} as const;
+export type DatapathSpec = z.infer<typeof DatapathSpecSchema>;
+export type DatapathSpecInput = z.input<typeof DatapathSpecSchema>;
+
 /** Acceptance limits; every field optional (absent = not checked). */
 export const AcceptanceLimitsSchema = z.strictObject({
   pslDbMax: z.number().finite().optional(),
@@ -131,6 +155,8 @@ const common = {
   sweep: SweepSpecSchema.optional(),
   /** ADC (input) word length, for the accumulator growth. */
   inputBits: z.number().int().min(2).max(32).default(14),
+  /** The receive (waveforms) or FIR (filters) datapath behind the golden vectors and the datapath figures. */
+  datapath: DatapathSpecSchema.default(DATAPATH_DEFAULTS),
 };
 
 /** A waveform design: transmit table + matched receive filter h[n] = w[n]·conj(s[N−1−n]). */

@@ -8,6 +8,8 @@ import { z } from "zod";
 import { nameSchema } from "./names";
 import {
   AcceptanceLimitsSchema,
+  DATAPATH_DEFAULTS,
+  DatapathSpecSchema,
   FirSourceSchema,
   FixedPointSpecSchema,
   SweepSpecSchema,
@@ -66,6 +68,7 @@ const analysisOptions = {
   limits: AcceptanceLimitsSchema.default({}),
   sweep: SweepSpecSchema.optional(),
   inputBits: z.number().int().min(2).max(32).default(14),
+  datapath: DatapathSpecSchema.default(DATAPATH_DEFAULTS),
 };
 
 /** What an author controls in a waveform revision. */

@@ -25,24 +25,33 @@ type Manifest = {
   tables: {
     role: string;
     fixedPoint: { wordLength: number };
+    datapath: {
+      inputBits: number;
+      accumulatorBits: number;
+      outputBits: number;
+      outputShift: number;
+      outputRounding: string;
+      outputOverflow: string;
+    } | null;
     exports: { template: string; path: string }[];
   }[];
-  golden: { filterTable: string };
+  golden: {
+    filterTable: string;
+    sets: {
+      name: string;
+      stimulus: { text: string; hex: string; length: number; bits: number };
+      expected: { text: string; hex: string; length: number; bits: number };
+      maxAbsAccumulator: string;
+      accumulatorBound: string;
+      overflowCount: number;
+    }[];
+  };
   approvals: { reviewer: { username: string } }[];
   transmitCaution: string | null;
   templates: { id: string; version: number }[];
 };
 
-type Scenario = {
-  filter: {
-    outputShift: number;
-    outputBits: number;
-    rounding: string;
-    overflow: string;
-    overflowCount: number;
-  };
-  stimulus: { inputBits: number; length: number };
-};
+type Datapath = NonNullable<Manifest["tables"][number]["datapath"]>;
 
 function walk(dir: string, base = ""): string[] {
   return readdirSync(path.join(dir, base)).flatMap((f) => {
@@ -56,7 +65,7 @@ function pairs(text: string): { re: bigint[]; im: bigint[] } {
   const re: bigint[] = [];
   const im: bigint[] = [];
   for (const line of text.split("\n")) {
-    if (line === "") continue;
+    if (line === "" || line.startsWith("#")) continue;
     const m = /^(-?\d+) (-?\d+)$/.exec(line);
     if (!m) throw new Error(`bad golden line ${JSON.stringify(line)}`);
     re.push(BigInt(m[1]!));
@@ -80,9 +89,18 @@ function roundShift(a: bigint, s: number, mode: string): bigint {
   return q % 2n === 0n ? q : q + 1n;
 }
 
-/** Independent bit-true model: y[n] = Σ h[k]·x[n−k] over the full convolution, BigInt throughout. */
-function expectedOutput(x: { re: bigint[]; im: bigint[] }, h: { re: bigint[]; im: bigint[] }, sc: Scenario) {
-  const { outputShift, outputBits, rounding, overflow } = sc.filter;
+/**
+ * Independent bit-true model: y[n] = Σ h[k]·x[n−k] over the full convolution, BigInt throughout, the sum
+ * wrapped to a two's-complement accumulatorBits register; also the largest |sum| met.
+ */
+function expectedOutput(x: { re: bigint[]; im: bigint[] }, h: { re: bigint[]; im: bigint[] }, dp: Datapath) {
+  const { outputShift, outputBits, outputRounding: rounding, outputOverflow: overflow } = dp;
+  let maxAbs = 0n;
+  const acc = (v: bigint) => {
+    const m = v < 0n ? -v : v;
+    if (m > maxAbs) maxAbs = m;
+    return BigInt.asIntN(dp.accumulatorBits, v);
+  };
   const max = (1n << BigInt(outputBits - 1)) - 1n;
   const min = -max - 1n;
   const fit = (v: bigint) =>
@@ -99,10 +117,10 @@ function expectedOutput(x: { re: bigint[]; im: bigint[] }, h: { re: bigint[]; im
       ar += h.re[k]! * x.re[i]! - h.im[k]! * x.im[i]!;
       ai += h.re[k]! * x.im[i]! + h.im[k]! * x.re[i]!;
     }
-    re.push(fit(roundShift(ar, outputShift, rounding)));
-    im.push(fit(roundShift(ai, outputShift, rounding)));
+    re.push(fit(roundShift(acc(ar), outputShift, rounding)));
+    im.push(fit(roundShift(acc(ai), outputShift, rounding)));
   }
-  return { re, im };
+  return { re, im, maxAbs };
 }
 
 describe("release bundles", () => {
@@ -178,9 +196,14 @@ describe("release bundles", () => {
         "README.txt",
         "manifest.json",
         "manifest.schema.json",
-        "golden/scenario.json",
-        "golden/stimulus.txt",
-        "golden/expected.txt",
+        "golden/sets.json",
+        "golden/scenario/stimulus.txt",
+        "golden/scenario/expected.txt",
+        "golden/worst-case/expected.hex",
+        "hdl/tw_tb.v",
+        "hdl/tw_fir.v",
+        "hdl/tw_tb.vhd",
+        "hdl/tw_fir.vhd",
         "report/report.html",
         "report/report.json",
       ])
@@ -229,7 +252,7 @@ describe("release bundles", () => {
       const validate = ajv.compile(JSON.parse(schemaBytes.toString("utf8")));
       const manifest = JSON.parse(u.read("manifest.json").toString("utf8")) as Manifest;
       expect(validate(manifest), JSON.stringify(validate.errors)).toBe(true);
-      expect(manifest.schemaVersion).toBe("1.0");
+      expect(manifest.schemaVersion).toBe("2.0");
       for (const f of manifest.files) {
         const bytes = u.read(f.path);
         expect({ path: f.path, size: bytes.byteLength, sha256: sha256(bytes) }).toEqual(f);
@@ -257,39 +280,72 @@ describe("release bundles", () => {
   });
 
   for (const which of ["waveform", "filter"] as const) {
-    it(`golden expected output (${which}) equals an independent BigInt direct convolution of the stimulus read back from the zip`, async () => {
+    it(`every vector set's expected output (${which}) equals an independent BigInt direct convolution of its stimulus read back from the zip; the worst case reaches the bound`, async () => {
       const rel = which === "waveform" ? waveform : filter;
       const res = await bundleOf(firmware, rel.release.id);
       const u = unzipToTemp(res.body);
       try {
         const manifest = JSON.parse(u.read("manifest.json").toString("utf8")) as Manifest;
-        const scenario = JSON.parse(u.read("golden/scenario.json").toString("utf8")) as Scenario;
         const table = manifest.tables.find((x) => x.role === manifest.golden.filterTable)!;
         expect(table.role).toBe(which === "waveform" ? "rx" : "fir");
+        const dp = table.datapath!;
+        expect(dp.outputBits).toBe(16); // the default
+        expect(manifest.tables.filter((x) => x.datapath !== null)).toHaveLength(1);
         const jsonExport = table.exports.find((e) => e.template === "json")!;
         const taps = (
           JSON.parse(u.read(jsonExport.path).toString("utf8")) as { taps: { i: number; q: number }[] }
         ).taps;
         const h = { re: taps.map((x) => BigInt(x.i)), im: taps.map((x) => BigInt(x.q)) };
-        const x = pairs(u.read("golden/stimulus.txt").toString("utf8"));
-        const y = pairs(u.read("golden/expected.txt").toString("utf8"));
-        expect(x.re).toHaveLength(scenario.stimulus.length);
-        const lim = 1n << BigInt(scenario.stimulus.inputBits - 1);
-        for (const v of [...x.re, ...x.im]) expect(v >= -lim && v < lim).toBe(true);
-        const want = expectedOutput(x, h, scenario);
-        expect(y.re.length).toBe(x.re.length + h.re.length - 1);
-        expect(y.re).toEqual(want.re);
-        expect(y.im).toEqual(want.im);
-        // The chosen output width keeps the worst case: nothing overflowed, and the output is not all zeros.
-        expect(scenario.filter.overflowCount).toBe(0);
-        expect(y.re.some((v) => v !== 0n)).toBe(true);
-        // The hex copy holds the same words (two's complement, ⌈bits/4⌉ digits).
-        const bits = scenario.filter.outputBits;
-        const hex = u.read("golden/expected.hex").toString("utf8").trimEnd().split("\n");
-        hex.forEach((line, n) => {
-          const [a, b] = line.split(" ").map((w) => BigInt.asIntN(bits, BigInt(`0x${w}`)));
-          expect([a, b]).toEqual([y.re[n], y.im[n]]);
-        });
+        // Worst case written out here from the definition: each term c·x is largest at x = 2^(B−1)−1 for
+        // c > 0 and −2^(B−1) for c < 0 (and the mirror for the most negative sum).
+        const top = 1n << BigInt(dp.inputBits - 1);
+        const extreme = (terms: bigint[]) => {
+          const p = terms.filter((c) => c > 0n).reduce((a, c) => a + c, 0n);
+          const n = terms.filter((c) => c < 0n).reduce((a, c) => a - c, 0n);
+          const hi = (top - 1n) * p + top * n;
+          const lo = top * p + (top - 1n) * n;
+          return hi > lo ? hi : lo;
+        };
+        const boundI = extreme([...h.re, ...h.im.map((v) => -v)]);
+        const boundQ = extreme([...h.re, ...h.im]);
+        const bound = boundI > boundQ ? boundI : boundQ;
+        expect(manifest.golden.sets.map((x) => x.name)).toEqual([
+          "scenario",
+          "impulse",
+          "worst-case",
+          "rounding",
+          "random-full-scale",
+        ]);
+        for (const set of manifest.golden.sets) {
+          expect(set.stimulus.text).toBe(`golden/${set.name}/stimulus.txt`);
+          expect(set.expected.hex).toBe(`golden/${set.name}/expected.hex`);
+          const x = pairs(u.read(set.stimulus.text).toString("utf8"));
+          const y = pairs(u.read(set.expected.text).toString("utf8"));
+          expect(x.re).toHaveLength(set.stimulus.length);
+          for (const v of [...x.re, ...x.im]) expect(v >= -top && v < top).toBe(true);
+          const want = expectedOutput(x, h, dp);
+          expect(y.re.length).toBe(x.re.length + h.re.length - 1);
+          expect(y.re, set.name).toEqual(want.re);
+          expect(y.im, set.name).toEqual(want.im);
+          expect(set.maxAbsAccumulator).toBe(want.maxAbs.toString());
+          expect(set.accumulatorBound).toBe(bound.toString());
+          // The worst-case set reaches the bound exactly; nothing exceeds it.
+          if (set.name === "worst-case") expect(want.maxAbs).toBe(bound);
+          expect(want.maxAbs <= bound).toBe(true);
+          // The hex copies hold the same words (two's complement, ⌈bits/4⌉ digits).
+          for (const [file, bits, v] of [
+            [set.expected.hex, set.expected.bits, y],
+            [set.stimulus.hex, set.stimulus.bits, x],
+          ] as const) {
+            const hex = u.read(file).toString("utf8").trimEnd().split("\n");
+            hex.forEach((line, n) => {
+              const [a, b] = line.split(" ").map((w) => BigInt.asIntN(bits, BigInt(`0x${w}`)));
+              expect([a, b]).toEqual([v.re[n], v.im[n]]);
+            });
+          }
+        }
+        const scenarioOut = pairs(u.read("golden/scenario/expected.txt").toString("utf8"));
+        expect(scenarioOut.re.some((v) => v !== 0n)).toBe(true);
         if (which === "filter") expect(manifest.transmitCaution).toBeNull();
       } finally {
         u.cleanup();

@@ -73,6 +73,7 @@ describe("npm run pull", () => {
       "README.txt",
       "SHA256SUMS",
       "golden",
+      "hdl",
       "manifest.json",
       "manifest.schema.json",
       "report",

@@ -228,6 +228,7 @@ describe("form → CreateDesignSchema mapping", () => {
       responsePoints: 8192,
       interpolation: 8,
       inputBits: 14,
+      datapath: { outputBits: 16, outputRounding: "nearest-even", outputOverflow: "saturate" },
       limits: {},
     });
     f.source = "upload";

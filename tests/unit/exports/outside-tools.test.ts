@@ -73,7 +73,7 @@ describe.each(CASES)("$label", (c) => {
   const signed = c.ctx.spec.signed;
 
   it.skipIf(!TOOLS.iverilog)(
-    "$readmemh in Icarus Verilog (-g2012) prints the quantized integers, sign-extended",
+    "$readmemh in Icarus Verilog (-g2012) prints the quantized integers with the header's sign-extension idiom",
     async () => {
       const d = dir(`v-${c.ctx.table.ident}-${W}`);
       const hex = await render("readmemh", c);
@@ -82,14 +82,23 @@ describe.each(CASES)("$label", (c) => {
       expect(dataLines.length).toBe(expectedWords.length);
       for (const l of dataLines) expect(l).toMatch(new RegExp(`^[0-9A-F]{${Math.ceil(W / 4)}}$`));
       writeFileSync(path.join(d, "table.hex"), hex.bytes);
+      // The header states the idiom for widening a word; use it as written (A = 40 here).
+      const idiom = /^\/\/ {3}wire signed \[A-1:0\] h = (.*);$/m.exec(hex.text)?.[1];
+      if (signed) expect(idiom).toBe(`{{(A-${W}){mem[k][${W - 1}]}}, mem[k]}`);
+      else expect(idiom).toBeUndefined();
+      const value = signed ? idiom!.replaceAll("A", "40") : "mem[k]";
       writeFileSync(
         path.join(d, "tb.v"),
         `module tb;
-  reg ${signed ? "signed " : ""}[${W - 1}:0] mem [0:${expectedWords.length - 1}];
+  reg [${W - 1}:0] mem [0:${expectedWords.length - 1}];
+  reg signed [39:0] wide;
   integer k;
   initial begin
     $readmemh("table.hex", mem);
-    for (k = 0; k < ${expectedWords.length}; k = k + 1) $display("%0d", mem[k]);
+    for (k = 0; k < ${expectedWords.length}; k = k + 1) begin
+      wide = ${value};
+      $display("%0d", wide);
+    end
     $finish;
   end
 endmodule

@@ -128,6 +128,19 @@ describe("renderReportHtml", () => {
   const report = analyze(lfmSpec);
   const html = renderReportHtml(header, report);
 
+  it("shows the datapath figures as analyze() computed them, and a caution when the accumulator is too narrow", () => {
+    const d = report.datapath!;
+    expect(html).toContain("Datapath of table rx");
+    expect(html).toContain(escapeHtml(db(d.outputSqnrDb)));
+    expect(html).toContain(
+      `${d.worstCase.maxAbsAccumulator} (${d.worstCase.accumulatorBitsReached} bits of ${d.accumulatorBits})`,
+    );
+    expect(html).not.toContain("narrower than");
+    const narrow = analyze({ ...lfmSpec, datapath: { accumulatorBits: d.accumulatorRequiredBits - 1 } });
+    expect(narrow.datapath!.worstCase.accumulatorOverflowCount).toBeGreaterThan(0);
+    expect(renderReportHtml(header, narrow)).toMatch(/narrower than the \d+ bits the worst case needs/);
+  });
+
   it("escapes the header and shows each field", () => {
     for (const v of Object.values(header)) expect(html).toContain(escapeHtml(v));
     expect(html).not.toContain("<S-band>");

@@ -11,6 +11,7 @@ import { useReport, type ReportDocument } from "../api/get-report";
 import { assumptions } from "../lib/assumptions";
 import { formatMetric } from "../lib/format-metric";
 import { limitChips, metricRows } from "../lib/metric-rows";
+import { DatapathTable } from "./datapath-table";
 import { LimitChipStrip } from "./limit-chips";
 import { MetricsTable } from "./metrics-table";
 import { ReportPlots } from "./report-plots";
@@ -118,6 +119,9 @@ function ReportView({ id, doc }: { id: number; doc: ReportDocument }) {
       )}
       <Section title="Tables and accumulator">
         <TablesTable report={report} />
+      </Section>
+      <Section title="Datapath">
+        <DatapathTable report={report} />
       </Section>
       <Section title="Assumptions">
         <ul className="list-disc pl-5 text-sm text-ink-800">

@@ -15,6 +15,7 @@ import { useRevision } from "../api/get-revision";
 import { describeSource, isFm } from "../lib/describe-source";
 import { REVISION_STATE_VIEW } from "../lib/states";
 import { CoefficientGrid } from "./coefficient-grid";
+import { DatapathSection } from "./datapath-section";
 import { FixedPointSection } from "./fixed-point-section";
 import { LimitsSection } from "./limits-section";
 import { TablePlots } from "./table-plots";
@@ -163,6 +164,9 @@ function Revision({ detail }: { detail: RevisionDetail }) {
           editable={detail.canEdit}
           onDirtyChange={(d) => setDirty((s) => (s.fixedPoint === d ? s : { ...s, fixedPoint: d }))}
         />
+      </Section>
+      <Section title="Datapath (receive / FIR)">
+        <DatapathSection revisionId={revision.id} content={content} editable={detail.canEdit} />
       </Section>
       <Section title="Acceptance limits">
         <LimitsSection
