@@ -3,10 +3,11 @@
  * a select, and a radio group. Each shows the message of its own field (client schema or server answer).
  */
 import type { ReactNode } from "react";
-import { get, useFormContext, type FieldPath } from "react-hook-form";
+import { get, useFormContext, useWatch, type FieldPath } from "react-hook-form";
 import { Field } from "@/components/ui/field";
 import { Input } from "@/components/ui/input";
 import { cn } from "@/lib/cn";
+import { notANumberMessage, parseNumberText } from "@/lib/parse-number";
 import type { DesignFormValues } from "../lib/form-values";
 
 type Name = FieldPath<DesignFormValues>;
@@ -34,20 +35,24 @@ export function NumberField({
   hint?: ReactNode;
   step?: string;
 }) {
-  const { register } = useFormContext<DesignFormValues>();
+  const { register, control } = useFormContext<DesignFormValues>();
   const error = useFieldError(name);
+  // A text box read strictly (src/lib/parse-number.ts): "1O" or "50 us" is refused by name, not read as 1 or 50.
+  const held = useWatch({ control, name }) as unknown;
+  const message = error && typeof held === "string" ? notANumberMessage(held, unit) : error;
   return (
-    <Field label={unit ? `${label} (${unit})` : label} hint={hint} error={error}>
+    <Field label={unit ? `${label} (${unit})` : label} hint={hint} error={message}>
       {({ id, describedBy, invalid }) => (
         <Input
           id={id}
-          type="number"
-          inputMode="decimal"
-          step={step}
+          type="text"
+          inputMode={step === "1" ? "numeric" : "decimal"}
+          autoComplete="off"
+          spellCheck={false}
           aria-describedby={describedBy}
           invalid={invalid}
           className="text-right font-mono"
-          {...register(name, { valueAsNumber: true })}
+          {...register(name, { setValueAs: parseNumberText })}
         />
       )}
     </Field>

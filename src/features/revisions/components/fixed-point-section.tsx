@@ -7,6 +7,8 @@ import type { RevisionContent } from "@shared/schemas/designs";
 import { Button } from "@/components/ui/button";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { cn } from "@/lib/cn";
+import { friendlyResolver } from "@/lib/friendly-message";
+import { parseNumberText } from "@/lib/parse-number";
 import { useUpdateRevision } from "../api/update-revision";
 import { lsb, qFormat, qRange } from "../lib/q-format";
 import { placeServerIssues } from "../lib/server-issues";
@@ -93,7 +95,7 @@ interface SectionProps {
 function Editor({ revisionId, content, onDirtyChange }: Omit<SectionProps, "editable">) {
   const update = useUpdateRevision(revisionId);
   const form = useForm<FormIn, unknown, FormOut>({
-    resolver: zodResolver(FormSchema),
+    resolver: friendlyResolver(zodResolver(FormSchema)),
     mode: "onChange",
     defaultValues: { fixedPoint: content.fixedPoint as Record<string, Spec> },
   });
@@ -120,13 +122,14 @@ function Editor({ revisionId, content, onDirtyChange }: Omit<SectionProps, "edit
       <div className="flex flex-col items-end gap-0.5">
         <input
           id={id}
-          type="number"
-          step={1}
+          type="text"
+          inputMode="numeric"
+          autoComplete="off"
           aria-label={`${role} ${label}`}
           aria-invalid={error ? true : undefined}
           aria-describedby={error ? `${id}-error` : undefined}
           className={cn(control, "w-16 text-right font-mono", error && "border-fail-600")}
-          {...register(`fixedPoint.${role}.${key}`, { valueAsNumber: true })}
+          {...register(`fixedPoint.${role}.${key}`, { setValueAs: parseNumberText })}
         />
         {error && (
           <span id={`${id}-error`} role="alert" className="max-w-40 text-right text-xs text-fail-700">
