@@ -67,3 +67,19 @@ export const LIMIT_WORDS: Readonly<Record<LimitKey, LimitWords>> = {
   stopbandAttenuationDbMin: { label: "Stopband attenuation", metric: "stopbandAttenuationDb", bound: "min" },
   passbandRippleDbMax: { label: "Passband ripple", metric: "passbandRippleDb", bound: "max" },
 };
+
+/** A report's overall verdict: no limits set means nothing was judged, which is neither a pass nor a fail. */
+export type Verdict = "pass" | "fail" | "not-judged";
+
+/** The verdict of a report (or of anything carrying its limit checks). */
+export function verdictOf(report: { limits: ReadonlyArray<{ pass: boolean }> }): Verdict {
+  if (report.limits.length === 0) return "not-judged";
+  return report.limits.every((c) => c.pass) ? "pass" : "fail";
+}
+
+/** The verdict in words, the same on screen, in the printed report and in mail. */
+export const VERDICT_WORDS: Readonly<Record<Verdict, string>> = {
+  pass: "All limits pass",
+  fail: "Limits fail",
+  "not-judged": "Not judged: no limits set",
+};

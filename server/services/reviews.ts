@@ -429,6 +429,7 @@ export async function reviewQueue(db: Db, viewer: Viewer): Promise<QueueItem[]> 
       canDecide: r.submittedById !== viewer.id,
       pass: s?.pass ?? null,
       failing: failingOf(s),
+      ...(s ? { limitCount: s.limits.length } : {}),
     };
   });
 }

@@ -53,7 +53,7 @@ export function AnalysisSection({ revisionId }: { revisionId: number }) {
     body = (
       <AnalysisFailed analysis={analysis} onRetry={() => run.mutate()} busy={run.isPending} canRun={canRun} />
     );
-  else body = <AnalysisDone analysis={analysis} revisionId={revisionId} />;
+  else body = <AnalysisDone analysis={analysis} revisionId={revisionId} detail={revision.data} />;
 
   const detail = revision.data;
   const authorDraft =

@@ -223,8 +223,9 @@ export function sweepPlots(report: Pick<AnalysisReport, "sweep" | "limits" | "ki
   const sweep = report.sweep;
   if (!sweep || sweep.rows.length === 0) return [];
   const x = Float64Array.from(sweep.rows, (r) => r.wordLength);
+  // No limits: every W passes vacuously, so no W is marked as the recommendation.
   const markers: PlotMarker[] =
-    sweep.smallestPassingWordLength === null
+    sweep.smallestPassingWordLength === null || report.limits.length === 0
       ? []
       : [{ x: sweep.smallestPassingWordLength, label: `W = ${sweep.smallestPassingWordLength}` }];
   const plots: ReportPlot[] = [];

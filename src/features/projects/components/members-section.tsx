@@ -78,7 +78,7 @@ function RemoveMember({
   const set = useSetMembers(projectId);
   return (
     <>
-      <Button size="sm" variant="ghost" className="text-fail-700" onClick={() => setOpen(true)}>
+      <Button size="sm" variant="danger-quiet" onClick={() => setOpen(true)}>
         Remove
       </Button>
       <Dialog
