@@ -49,7 +49,8 @@ export function generatorMessage(message: string): string {
 export function friendlyMessage(issue: MessageLike): string {
   const m = issue.message;
   if (/expected number, received (undefined|NaN)/.test(m)) return "enter a number";
-  if (/expected number, received string/.test(m)) return "not a number: type digits only (the unit is in the label)";
+  if (/expected number, received string/.test(m))
+    return "not a number: type digits only (the unit is in the label)";
   if (/expected int/.test(m)) return "enter a whole number";
   let r = /Too big: expected number to be (<=?)\s*(\S+)/.exec(m);
   if (r) return `${r[1] === "<" ? "must be less than" : "at most"} ${r[2]}`;
@@ -61,11 +62,11 @@ export function friendlyMessage(issue: MessageLike): string {
   return generatorMessage(m);
 }
 
-
 function rewrite(node: unknown): void {
   if (!node || typeof node !== "object") return;
   const n = node as Record<string, unknown>;
-  if (typeof n.message === "string" && typeof n.type === "string") n.message = friendlyMessage({ message: n.message });
+  if (typeof n.message === "string" && typeof n.type === "string")
+    n.message = friendlyMessage({ message: n.message });
   for (const [k, v] of Object.entries(n)) if (k !== "ref" && k !== "message") rewrite(v);
 }
 

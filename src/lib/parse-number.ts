@@ -9,7 +9,9 @@ const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i;
 export function parseNumberText(raw: unknown): number | string {
   if (typeof raw === "number") return raw;
   if (raw === null || raw === undefined) return NaN;
-  const text = String(raw).trim().replace(/\u2212/g, "-");
+  const text = String(raw)
+    .trim()
+    .replace(/\u2212/g, "-");
   if (text === "") return NaN;
   return NUMBER.test(text) ? Number(text) : String(raw);
 }

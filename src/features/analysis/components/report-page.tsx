@@ -96,9 +96,7 @@ function ReportView({ id, doc }: { id: number; doc: ReportDocument }) {
       />
       <Section
         title="Acceptance limits"
-        action={
-          <Badge tone={VERDICT_TONE[verdictOf(report)]}>{VERDICT_WORDS[verdictOf(report)]}</Badge>
-        }
+        action={<Badge tone={VERDICT_TONE[verdictOf(report)]}>{VERDICT_WORDS[verdictOf(report)]}</Badge>}
       >
         <LimitChipStrip groups={limitChips(report)} />
       </Section>
@@ -158,7 +156,9 @@ function SweepTable({ report, revisionId }: { report: AnalysisReport; revisionId
     <div className="flex flex-col gap-2">
       <p className="flex flex-wrap items-center gap-x-3 gap-y-1 text-sm text-ink-800">
         {!judged ? (
-          <>No acceptance limits are set: no word length is judged or recommended. Set limits on the revision.</>
+          <>
+            No acceptance limits are set: no word length is judged or recommended. Set limits on the revision.
+          </>
         ) : best === null ? (
           <>No word length in the sweep meets every limit.</>
         ) : (

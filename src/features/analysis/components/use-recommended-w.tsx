@@ -10,7 +10,11 @@ import { analysisKeys } from "../api/keys";
  * The draft's content with the swept tables at word length `w`, integer bits W − F kept as the sweep varied
  * them (shared/dsp/analysis.ts sweepSpec), so only the resolution changes.
  */
-export function withWordLength(content: RevisionContent, tables: readonly string[], w: number): RevisionContent {
+export function withWordLength(
+  content: RevisionContent,
+  tables: readonly string[],
+  w: number,
+): RevisionContent {
   const fixedPoint = { ...content.fixedPoint } as Record<
     string,
     { wordLength: number; fractionLength: number }
@@ -18,7 +22,11 @@ export function withWordLength(content: RevisionContent, tables: readonly string
   for (const role of tables) {
     const spec = fixedPoint[role];
     if (!spec) continue;
-    fixedPoint[role] = { ...spec, wordLength: w, fractionLength: spec.fractionLength + (w - spec.wordLength) };
+    fixedPoint[role] = {
+      ...spec,
+      wordLength: w,
+      fractionLength: spec.fractionLength + (w - spec.wordLength),
+    };
   }
   return { ...content, fixedPoint } as RevisionContent;
 }

@@ -13,7 +13,8 @@ function finishMessage(a: AnalysisStatus): [string, "pass" | "fail" | "warn"] {
   const report = a.report as { limits?: Array<{ pass: boolean }> } | null;
   if (!report?.limits) return ["Analysis finished: report ready", "pass"];
   const verdict = verdictOf({ limits: report.limits });
-  if (verdict === "not-judged") return ["Analysis finished: not judged, no acceptance limits are set", "warn"];
+  if (verdict === "not-judged")
+    return ["Analysis finished: not judged, no acceptance limits are set", "warn"];
   return [`Analysis finished: ${verdict === "pass" ? "every limit passes" : "some limits fail"}`, verdict];
 }
 

@@ -9,6 +9,7 @@ import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { cn } from "@/lib/cn";
 import { friendlyResolver } from "@/lib/friendly-message";
 import { parseNumberText } from "@/lib/parse-number";
+import { WrapCaution } from "@/components/wrap-caution";
 import { useUpdateRevision } from "../api/update-revision";
 import { lsb, qFormat, qRange } from "../lib/q-format";
 import { placeServerIssues } from "../lib/server-issues";
@@ -201,6 +202,7 @@ function Editor({ revisionId, content, onDirtyChange }: Omit<SectionProps, "edit
           ))}
         </tbody>
       </Table>
+      {values?.tx?.overflow === "wrap" && <WrapCaution />}
       <div className="flex items-center justify-end gap-2">
         {formState.errors.root?.server && (
           <p role="alert" className="mr-auto text-sm text-fail-700">
@@ -221,5 +223,12 @@ function Editor({ revisionId, content, onDirtyChange }: Omit<SectionProps, "edit
 /** Word length, fraction length and modes per table: a form on an editable draft, a table otherwise. */
 export function FixedPointSection({ editable, ...props }: SectionProps) {
   const specs = Object.entries(props.content.fixedPoint) as Array<[string, Spec]>;
-  return editable ? <Editor {...props} /> : <ReadOnly specs={specs} />;
+  if (editable) return <Editor {...props} />;
+  const wrapTx = specs.some(([role, s]) => role === "tx" && s.overflow === "wrap");
+  return (
+    <div className="flex flex-col gap-2">
+      <ReadOnly specs={specs} />
+      {wrapTx && <WrapCaution />}
+    </div>
+  );
 }

@@ -24,7 +24,9 @@ function StartNext({ detail }: { detail: RevisionDetail }) {
   const start = useStartRevision(detail.design.id);
   const navigate = useNavigate();
   const draft =
-    start.error instanceof ApiError && start.error.status === 409 ? openDraftId(start.error.details) : undefined;
+    start.error instanceof ApiError && start.error.status === 409
+      ? openDraftId(start.error.details)
+      : undefined;
   return (
     <div className="flex flex-col items-end gap-1">
       <Button
@@ -76,10 +78,11 @@ export function NextAction({ detail, blocked }: { detail: RevisionDetail; blocke
     const a = analysis.data;
     if (a && a.state === "done") return <SubmitForReview detail={detail} blocked={blocked} />;
     if (analysis.isPending) return null;
-    return <RunFirst revisionId={detail.revision.id} busy={a?.state === "queued" || a?.state === "running"} />;
+    return (
+      <RunFirst revisionId={detail.revision.id} busy={a?.state === "queued" || a?.state === "running"} />
+    );
   }
-  if (state === "changes_requested" && hasAnyRole(roles, ["author"]))
-    return <StartNext detail={detail} />;
+  if (state === "changes_requested" && hasAnyRole(roles, ["author"])) return <StartNext detail={detail} />;
   if (state === "in_review" && (allowed.has("approve") || allowed.has("request_changes")))
     return (
       <a href="#review" className={ANCHOR}>
