@@ -33,7 +33,7 @@ export const router = createBrowserRouter([
       {
         index: true,
         element: page(
-          () => import("./routes/pages"),
+          () => import("./routes/home"),
           (m) => m.HomeRoute,
         ),
       },
