@@ -24,13 +24,13 @@ function values(tables: TableValues[], role: TableRole): { re: number[]; im?: nu
   return im.some((v) => v !== 0) ? { re, im } : { re };
 }
 
-/** How far below and above the table's own W the default sweep looks (common practice: a byte either way is
- * where a firmware engineer's choice lies; below W − 8 every design of the trade fails its limits). */
-export const DEFAULT_SWEEP_BELOW = 8;
+/** How far below and above the table's own W the default sweep looks (common practice: ten bits below
+ * reaches the word lengths where coefficient SQNR (about 6 dB a bit) and sidelobes give out for the usual limits). */
+export const DEFAULT_SWEEP_BELOW = 10;
 export const DEFAULT_SWEEP_ABOVE = 4;
 
 /**
- * The bit-width sweep every analysis runs unless the revision sets its own: the swept table's W − 8 … W + 4,
+ * The bit-width sweep every analysis runs unless the revision sets its own: the swept table's W − 10 … W + 4,
  * inside the 2…32 bits a spec allows. The sweep varies the receive table of a waveform and the FIR taps.
  */
 export function defaultSweep(content: RevisionContent): { minBits: number; maxBits: number } {

@@ -15,11 +15,11 @@ describe("toAnalysisSpec", () => {
       limits: { pslDbMax: -35 },
     });
     const spec = AnalysisSpecSchema.parse(toAnalysisSpec(content, []));
-    // Every analysis sweeps by default: W = 16 → 8 … 20 bits.
-    expect(spec).toEqual(AnalysisSpecSchema.parse({ ...content, sweep: { minBits: 8, maxBits: 20 } }));
+    // Every analysis sweeps by default: W = 16 → 6 … 20 bits.
+    expect(spec).toEqual(AnalysisSpecSchema.parse({ ...content, sweep: { minBits: 6, maxBits: 20 } }));
   });
 
-  it("sweeps W − 8 … W + 4 of the swept table by default, inside 2 … 32 bits, and keeps a sweep the author set", () => {
+  it("sweeps W − 10 … W + 4 of the swept table by default, inside 2 … 32 bits, and keeps a sweep the author set", () => {
     const base = RevisionContentSchema.parse({
       kind: "filter",
       fir: { kind: "upload", uploadId: 3, sampleRateHz: 1e6, passbands: [[0, 1e5]], stopbands: [[3e5, 5e5]] },
@@ -27,7 +27,7 @@ describe("toAnalysisSpec", () => {
     });
     expect(defaultSweep(base)).toEqual({ minBits: 2, maxBits: 10 });
     const wide = { ...base, fixedPoint: { fir: { wordLength: 30, fractionLength: 29 } } } as typeof base;
-    expect(defaultSweep(wide)).toEqual({ minBits: 22, maxBits: 32 });
+    expect(defaultSweep(wide)).toEqual({ minBits: 20, maxBits: 32 });
     const own = { ...base, sweep: { minBits: 4, maxBits: 5 } } as typeof base;
     expect(
       AnalysisSpecSchema.parse(toAnalysisSpec(own, [{ role: "fir", re: [0.5, 0.5], im: [0, 0] }])).sweep,

@@ -9,6 +9,7 @@ import { useAnalysis } from "../api/get-analysis";
 import { useRunAnalysis } from "../api/run-analysis";
 import { useFinishToast } from "../hooks/use-finish-toast";
 import { AnalysisDone, AnalysisFailed, AnalysisProgress } from "./analysis-status";
+import { SweepRange } from "./sweep-range";
 import { WhatIfPanel } from "./what-if-panel";
 
 // The server allows authors and reviewers who are members to start an analysis.
@@ -66,6 +67,7 @@ export function AnalysisSection({ revisionId }: { revisionId: number }) {
       <div className="flex flex-col gap-4" data-testid="analysis-section">
         {run.isError && <ErrorState title="The analysis could not be started" error={run.error} />}
         {body}
+        {authorDraft && <SweepRange key={JSON.stringify(detail.content.sweep ?? null)} detail={detail} />}
         {authorDraft && (
           <WhatIfPanel
             revisionId={revisionId}

@@ -167,6 +167,12 @@ function SweepTable({ report, revisionId }: { report: AnalysisReport; revisionId
             that meets every limit (table
             {sweep.tables.length > 1 ? "s" : ""} <span className="font-mono">{sweep.tables.join(", ")}</span>{" "}
             varied, integer bits kept).
+            {best === Math.min(...sweep.rows.map((r) => r.wordLength)) && (
+              <>
+                {" "}
+                It is the lowest W tried: a smaller one may pass too; widen the sweep on the revision page.
+              </>
+            )}
           </>
         )}
         {revision.data && (
