@@ -5,6 +5,7 @@
  */
 import type { AnalysisReport, LimitCheck, PlotTrace, TableReport } from "../../shared/dsp/analysis";
 import type { ReportHeader } from "../../shared/schemas/analyses";
+import { gainText, wordText } from "../../shared/report-format";
 import { verdictOf } from "../../shared/report-words";
 import { escapeHtml as e } from "./escape";
 import { db, plain, si } from "./format";
@@ -50,8 +51,7 @@ function metricsTable(r: AnalysisReport): string {
 }
 
 function qFormat(t: TableReport): string {
-  const f = t.fixedPoint;
-  return `${f.signed ? "signed" : "unsigned"} W = ${f.wordLength}, F = ${f.fractionLength}`;
+  return wordText(t.fixedPoint);
 }
 
 function tablesTable(r: AnalysisReport): string {
@@ -60,7 +60,7 @@ function tablesTable(r: AnalysisReport): string {
       t,
     ) => `<tr><th scope="row">${e(t.role)}</th><td class="num">${e(plain(t.length))}</td><td>${t.complex ? "complex" : "real"}</td>
 <td>${e(qFormat(t))}</td><td>${e(`${t.fixedPoint.scaling}, ${t.fixedPoint.rounding}, ${t.fixedPoint.overflow}`)}</td>
-<td class="num">${e(plain(t.gain))}</td><td class="num">${e(plain(t.overflowCount))}</td>
+<td class="num">${e(gainText(t.gain))}</td><td class="num">${e(plain(t.overflowCount))}</td>
 <td class="num">${e(formatMetric("coefficientSqnrDb", t.coefficientSqnrDb))}</td>
 <td class="num">${t.accumulator ? e(`${t.accumulator.recommendedBits} bits`) : "\u2014"}</td></tr>`,
   );

@@ -10,6 +10,9 @@ import { fieldMessages } from "@/features/designs/lib/issues";
 import { withWordLength } from "@/features/analysis/components/use-recommended-w";
 import { friendlyMessage, generatorMessage } from "@/lib/friendly-message";
 import { formatElapsed } from "@/lib/format";
+import { analyze } from "@shared/dsp/analysis";
+import { gainText, wordText } from "@shared/report-format";
+import { renderReportHtml } from "../../../server/reports/render-html";
 import { parseNumberText } from "@/lib/parse-number";
 
 describe("number boxes read strictly", () => {
@@ -104,5 +107,39 @@ describe("elapsed time", () => {
     expect(formatElapsed(350)).toBe("350 ms");
     expect(formatElapsed(1234)).toBe("1.23 s");
     expect(formatElapsed(42_000)).toBe("42 s");
+  });
+});
+
+describe("one format for the report page and the printed report", () => {
+  it("writes the word and the gain the same way in both", () => {
+    expect(wordText({ wordLength: 16, fractionLength: 15, signed: true })).toBe(
+      "sQ1.15 (signed, W = 16, F = 15)",
+    );
+    // 32767/32768 to six significant figures is 0.999969 (not rounded up to 1 in one place and not the other).
+    expect(gainText(32767 / 32768)).toBe("0.999969");
+    expect(gainText(1)).toBe("1");
+    const report = analyze({
+      kind: "waveform",
+      tx: { kind: "phase-code", code: { kind: "barker", length: 13 }, sampleRateHz: 1e6 },
+      fixedPoint: { tx: { wordLength: 12, fractionLength: 11 }, rx: { wordLength: 10, fractionLength: 9 } },
+      interpolation: 1,
+    });
+    const html = renderReportHtml(
+      {
+        project: "p",
+        design: "d",
+        revision: "r1",
+        contentHash: "0".repeat(64),
+        generatedAt: "2026-12-04T00:00:00.000Z",
+        softwareVersion: "0.1.0",
+      },
+      report,
+    );
+    for (const t of report.tables) {
+      expect(html).toContain(wordText(t.fixedPoint));
+      expect(html).toContain(`<td class="num">${gainText(t.gain)}</td>`);
+    }
+    // No limits: the printed report says "not judged", as the page does.
+    expect(html).toContain("Not judged");
   });
 });

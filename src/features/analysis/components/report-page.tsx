@@ -5,6 +5,7 @@ import { CopyButton } from "@/components/ui/copy-button";
 import { PageHeader, Section } from "@/components/ui/page";
 import { EmptyState, ErrorState, TableSkeleton } from "@/components/ui/states";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
+import { gainText, wordText } from "@shared/report-format";
 import { VERDICT_WORDS, verdictOf } from "@shared/report-words";
 import { ApiError } from "@/lib/api-client";
 import { VERDICT_TONE } from "@/lib/verdict";
@@ -273,13 +274,12 @@ function TablesTable({ report }: { report: AnalysisReport }) {
               <Td className="font-mono">{t.role}</Td>
               <Td numeric>{t.length}</Td>
               <Td className="font-mono text-[13px]">
-                {fp.signed ? "s" : "u"}Q{fp.wordLength - fp.fractionLength}.{fp.fractionLength} (W{" "}
-                {fp.wordLength}, {fp.scaling})
+                {wordText(fp)}, {fp.scaling}
               </Td>
               <Td className="text-xs">
                 {fp.rounding} / {fp.overflow}
               </Td>
-              <Td numeric>{t.gain.toPrecision(6)}</Td>
+              <Td numeric>{gainText(t.gain)}</Td>
               <Td numeric className={t.overflowCount > 0 ? "text-fail-700" : undefined}>
                 {t.overflowCount}
               </Td>

@@ -44,7 +44,7 @@ export function ProjectPage() {
             <p className="mt-1 text-xs">
               Slug <span className="font-mono">{project.slug}</span> · created{" "}
               <span className="font-mono">{formatDate(project.createdAt)}</span> · {project.memberCount}{" "}
-              members
+              {project.memberCount === 1 ? "member" : "members"}
             </p>
           </>
         }
