@@ -84,6 +84,7 @@ describe("the four journeys", () => {
     await page.getByRole("button", { name: "Create design" }).click();
     await page.waitForURL(/\/revisions\/\d+$/);
     revisionId = Number(/\/revisions\/(\d+)$/.exec(page.url())![1]);
+    await page.getByRole("heading", { name: new RegExp(`${DESIGN} r1`) }).waitFor();
     // A fresh draft: the header's one action is to run the analysis.
     expect(await page.getByRole("button", { name: "Submit for review" }).count()).toBe(0);
     await shot(page, "author-3-fresh-draft");

@@ -70,6 +70,7 @@ export function AnalysisSection({ revisionId }: { revisionId: number }) {
         {authorDraft && <SweepRange key={JSON.stringify(detail.content.sweep ?? null)} detail={detail} />}
         {authorDraft && (
           <WhatIfPanel
+            key={JSON.stringify(detail.content.fixedPoint)}
             revisionId={revisionId}
             detail={detail}
             saved={analysis?.state === "done" ? analysis.report : null}

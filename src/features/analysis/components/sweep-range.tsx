@@ -56,28 +56,32 @@ export function SweepRange({ detail }: { detail: RevisionDetail }) {
       <label className="sr-only" htmlFor="sweep-from">
         Sweep from (bits)
       </label>
-      <Input
-        id="sweep-from"
-        inputMode="numeric"
-        autoComplete="off"
-        className="w-14 text-right font-mono"
-        value={from}
-        invalid={problem?.startsWith("From") ?? false}
-        onChange={(e) => setFrom(e.target.value)}
-      />
+      <div className="w-16">
+        <Input
+          id="sweep-from"
+          inputMode="numeric"
+          autoComplete="off"
+          className="text-right font-mono"
+          value={from}
+          invalid={problem?.startsWith("From") ?? false}
+          onChange={(e) => setFrom(e.target.value)}
+        />
+      </div>
       <span className="pb-1.5">to</span>
       <label className="sr-only" htmlFor="sweep-to">
         Sweep to (bits)
       </label>
-      <Input
-        id="sweep-to"
-        inputMode="numeric"
-        autoComplete="off"
-        className="w-14 text-right font-mono"
-        value={to}
-        invalid={problem?.startsWith("To") ?? false}
-        onChange={(e) => setTo(e.target.value)}
-      />
+      <div className="w-16">
+        <Input
+          id="sweep-to"
+          inputMode="numeric"
+          autoComplete="off"
+          className="text-right font-mono"
+          value={to}
+          invalid={problem?.startsWith("To") ?? false}
+          onChange={(e) => setTo(e.target.value)}
+        />
+      </div>
       <span className="pb-1.5">bits</span>
       <Button size="sm" type="submit" busy={update.isPending} disabled={!changed || problem !== null}>
         Set range
