@@ -289,5 +289,6 @@ describe("review and release", () => {
       expect(p.foreign).toEqual([]);
       expect(p.pageErrors).toEqual([]);
     }
-  });
+    // The whole life cycle with two analyses and a bundle build: on a shared 2-core machine this needs room.
+  }, 300_000);
 });
