@@ -28,12 +28,8 @@ export const METRIC_WORDS: Readonly<Record<string, MetricWords>> = {
   islrDb: { label: "Integrated sidelobe ratio (ISLR)", unit: "dB", limit: "islrDbMax" },
   mismatchLossDb: { label: "Mismatch (SNR) loss", unit: "dB", limit: "mismatchLossDbMax" },
   peakLossDb: { label: "Peak loss, fixed vs float", unit: "dB", limit: "peakLossDbMax" },
-  width3dbSamples: { label: "\u22123 dB mainlobe width", unit: "samples" },
-  width3dbSeconds: {
-    label: "\u22123 dB mainlobe width (time)",
-    screenLabel: "\u22123 dB mainlobe width",
-    unit: "s",
-  },
+  width3dbSamples: { label: "\u22123 dB mainlobe width (samples)", unit: "samples" },
+  width3dbSeconds: { label: "\u22123 dB mainlobe width (time)", unit: "s" },
   width3dbMetres: {
     label: "\u22123 dB mainlobe width (range)",
     screenLabel: "\u22123 dB range resolution (c/2)",
