@@ -67,7 +67,12 @@ export function AnalysisSection({ revisionId }: { revisionId: number }) {
       <div className="flex flex-col gap-4" data-testid="analysis-section">
         {run.isError && <ErrorState title="The analysis could not be started" error={run.error} />}
         {body}
-        {authorDraft && <SweepRange key={JSON.stringify(detail.content.sweep ?? null)} detail={detail} />}
+        {authorDraft && (
+          <SweepRange
+            key={JSON.stringify([detail.content.sweep ?? null, detail.content.fixedPoint])}
+            detail={detail}
+          />
+        )}
         {authorDraft && (
           <WhatIfPanel
             key={JSON.stringify(detail.content.fixedPoint)}
