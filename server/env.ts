@@ -27,7 +27,8 @@ const EnvSchema = z
     CLIENT_DIST: z.string().default("dist/client"),
     TAPWRIGHT_VERSION: z.string().default(packageVersion()),
     // Mail (issue 6). Without SMTP_HOST, mail goes to the local sink on 127.0.0.1:MAIL_SINK_PORT.
-    PUBLIC_URL: z.url().default("http://127.0.0.1:3000"),
+    // Default: this server's own address, so links in mail follow PORT (see the transform below).
+    PUBLIC_URL: z.url().optional(),
     SMTP_HOST: z.string().min(1).optional(),
     SMTP_PORT: z.coerce.number().int().min(1).max(65535).optional(),
     SMTP_SECURE: flag.default(false),
@@ -47,6 +48,13 @@ const EnvSchema = z
   .refine((e) => e.NODE_ENV !== "production" || e.SESSION_SECRET !== undefined, {
     path: ["SESSION_SECRET"],
     message: "SESSION_SECRET is required in production",
+  })
+  .transform((e) => {
+    if (e.PUBLIC_URL !== undefined) return { ...e, PUBLIC_URL: e.PUBLIC_URL };
+    // A wildcard bind address is not one a browser can open: name the loopback instead.
+    const host = e.HOST === "0.0.0.0" || e.HOST === "::" ? "127.0.0.1" : e.HOST;
+    const h = host.includes(":") ? `[${host}]` : host;
+    return { ...e, PUBLIC_URL: `http://${h}:${e.PORT}` };
   });
 
 /** The validated server environment. */

@@ -24,8 +24,27 @@ function values(tables: TableValues[], role: TableRole): { re: number[]; im?: nu
   return im.some((v) => v !== 0) ? { re, im } : { re };
 }
 
-/** The AnalysisSpec input for a revision (uploads replaced by their values). */
+/** How far below and above the table's own W the default sweep looks (common practice: ten bits below
+ * reaches the word lengths where coefficient SQNR (about 6 dB a bit) and sidelobes give out for the usual limits). */
+export const DEFAULT_SWEEP_BELOW = 10;
+export const DEFAULT_SWEEP_ABOVE = 4;
+
+/**
+ * The bit-width sweep every analysis runs unless the revision sets its own: the swept table's W − 10 … W + 4,
+ * inside the 2…32 bits a spec allows. The sweep varies the receive table of a waveform and the FIR taps.
+ */
+export function defaultSweep(content: RevisionContent): { minBits: number; maxBits: number } {
+  const w =
+    content.kind === "waveform" ? content.fixedPoint.rx.wordLength : content.fixedPoint.fir.wordLength;
+  return {
+    minBits: Math.max(2, Math.min(w, 32) - DEFAULT_SWEEP_BELOW),
+    maxBits: Math.min(32, w + DEFAULT_SWEEP_ABOVE),
+  };
+}
+
+/** The AnalysisSpec input for a revision (uploads replaced by their values; the default sweep when none is set). */
 export function toAnalysisSpec(content: RevisionContent, tables: TableValues[]): AnalysisSpecInput {
+  if (content.sweep === undefined) content = { ...content, sweep: defaultSweep(content) };
   if (content.kind === "waveform") {
     const { tx, ...rest } = content;
     if (tx.kind !== "upload") return { ...rest, tx };

@@ -28,12 +28,8 @@ export const METRIC_WORDS: Readonly<Record<string, MetricWords>> = {
   islrDb: { label: "Integrated sidelobe ratio (ISLR)", unit: "dB", limit: "islrDbMax" },
   mismatchLossDb: { label: "Mismatch (SNR) loss", unit: "dB", limit: "mismatchLossDbMax" },
   peakLossDb: { label: "Peak loss, fixed vs float", unit: "dB", limit: "peakLossDbMax" },
-  width3dbSamples: { label: "\u22123 dB mainlobe width", unit: "samples" },
-  width3dbSeconds: {
-    label: "\u22123 dB mainlobe width (time)",
-    screenLabel: "\u22123 dB mainlobe width",
-    unit: "s",
-  },
+  width3dbSamples: { label: "\u22123 dB mainlobe width (samples)", unit: "samples" },
+  width3dbSeconds: { label: "\u22123 dB mainlobe width (time)", unit: "s" },
   width3dbMetres: {
     label: "\u22123 dB mainlobe width (range)",
     screenLabel: "\u22123 dB range resolution (c/2)",
@@ -66,4 +62,20 @@ export const LIMIT_WORDS: Readonly<Record<LimitKey, LimitWords>> = {
   coefficientSqnrDbMin: { label: "Coefficient SQNR", metric: "coefficientSqnrDb", bound: "min" },
   stopbandAttenuationDbMin: { label: "Stopband attenuation", metric: "stopbandAttenuationDb", bound: "min" },
   passbandRippleDbMax: { label: "Passband ripple", metric: "passbandRippleDb", bound: "max" },
+};
+
+/** A report's overall verdict: no limits set means nothing was judged, which is neither a pass nor a fail. */
+export type Verdict = "pass" | "fail" | "not-judged";
+
+/** The verdict of a report (or of anything carrying its limit checks). */
+export function verdictOf(report: { limits: ReadonlyArray<{ pass: boolean }> }): Verdict {
+  if (report.limits.length === 0) return "not-judged";
+  return report.limits.every((c) => c.pass) ? "pass" : "fail";
+}
+
+/** The verdict in words, the same on screen, in the printed report and in mail. */
+export const VERDICT_WORDS: Readonly<Record<Verdict, string>> = {
+  pass: "All limits pass",
+  fail: "Limits fail",
+  "not-judged": "Not judged: no limits set",
 };

@@ -5,6 +5,8 @@
  */
 import type { AnalysisReport, LimitCheck, PlotTrace, TableReport } from "../../shared/dsp/analysis";
 import type { ReportHeader } from "../../shared/schemas/analyses";
+import { gainText, wordText } from "../../shared/report-format";
+import { verdictOf } from "../../shared/report-words";
 import { datapathSection } from "./datapath-html";
 import { escapeHtml as e } from "./escape";
 import { db, plain, si } from "./format";
@@ -50,8 +52,7 @@ function metricsTable(r: AnalysisReport): string {
 }
 
 function qFormat(t: TableReport): string {
-  const f = t.fixedPoint;
-  return `${f.signed ? "signed" : "unsigned"} W = ${f.wordLength}, F = ${f.fractionLength}`;
+  return wordText(t.fixedPoint);
 }
 
 function tablesTable(r: AnalysisReport): string {
@@ -60,7 +61,7 @@ function tablesTable(r: AnalysisReport): string {
       t,
     ) => `<tr><th scope="row">${e(t.role)}</th><td class="num">${e(plain(t.length))}</td><td>${t.complex ? "complex" : "real"}</td>
 <td>${e(qFormat(t))}</td><td>${e(`${t.fixedPoint.scaling}, ${t.fixedPoint.rounding}, ${t.fixedPoint.overflow}`)}</td>
-<td class="num">${e(plain(t.gain))}</td><td class="num">${e(plain(t.overflowCount))}</td>
+<td class="num">${e(gainText(t.gain))}</td><td class="num">${e(plain(t.overflowCount))}</td>
 <td class="num">${e(formatMetric("coefficientSqnrDb", t.coefficientSqnrDb))}</td>
 <td class="num">${t.accumulator ? e(`${t.accumulator.recommendedBits} bits`) : "\u2014"}</td></tr>`,
   );
@@ -259,7 +260,9 @@ function sweepSection(r: AnalysisReport): string {
   const s = r.sweep;
   if (!s || s.rows.length === 0) return "";
   const ws = s.rows.map((row) => row.wordLength);
-  const best = s.smallestPassingWordLength;
+  // Without limits every W "passes" vacuously: nothing is judged, so nothing is recommended.
+  const judged = verdictOf(r) !== "not-judged";
+  const best = judged ? s.smallestPassingWordLength : null;
   const figs = SWEEP_FIGURES.filter((k) => s.rows.some((row) => typeof row.figures[k] === "number"));
   const svgs = figs.map((k) => {
     const pts = s.rows.filter((row) => typeof row.figures[k] === "number");
@@ -292,14 +295,16 @@ function sweepSection(r: AnalysisReport): string {
       (
         row,
       ) => `<tr${row.wordLength === best ? ' class="best"' : ""}><th scope="row" class="num">${e(row.wordLength)}</th>
-${figs.map((k) => `<td class="num">${e(formatMetric(k, row.figures[k]))}</td>`).join("")}<td>${e(row.method)}</td>${verdict(row.pass)}</tr>`,
+${figs.map((k) => `<td class="num">${e(formatMetric(k, row.figures[k]))}</td>`).join("")}<td>${e(row.method)}</td>${verdict(judged ? row.pass : null)}</tr>`,
     )
     .join("\n");
   return `<h2>Bit-width sweep</h2>
 <p>Word lengths ${e(Math.min(...ws))} to ${e(Math.max(...ws))} on table(s) ${e(s.tables.join(", "))}. ${
-    best === null
-      ? "<b>No word length in the range meets every acceptance limit.</b>"
-      : `The smallest word length that meets every acceptance limit is <b class="num">W = ${e(best)}</b>.`
+    !judged
+      ? "<b>No acceptance limits were set: no word length is judged or recommended.</b>"
+      : best === null
+        ? "<b>No word length in the range meets every acceptance limit.</b>"
+        : `The smallest word length that meets every acceptance limit is <b class="num">W = ${e(best)}</b>.`
   }</p>
 ${svgs.join("\n")}
 <table class="sweep"><thead><tr><th scope="col">W</th>${head}<th scope="col">Method</th><th scope="col">Verdict</th></tr></thead><tbody>${rows}</tbody></table>`;
@@ -335,7 +340,7 @@ export function renderReportHtml(header: ReportHeader, report: AnalysisReport): 
     .map((c) => labelOf(LIMIT_METRIC[c.name]?.metric ?? c.name));
   const overall =
     report.limits.length === 0
-      ? `<p class="banner none">No acceptance limits were set: nothing was judged.</p>`
+      ? `<p class="banner none">Not judged: no acceptance limits were set.</p>`
       : report.pass
         ? `<p class="banner pass">All ${report.limits.length} acceptance limits pass.</p>`
         : `<p class="banner fail">${failing.length} of ${report.limits.length} acceptance limits fail: ${e(failing.join(", "))}.</p>`;

@@ -442,6 +442,7 @@ export async function reviewQueue(db: Db, viewer: Viewer): Promise<QueueItem[]> 
       canDecide: r.submittedById !== viewer.id && !authors.get(r.revisionId)?.has(viewer.id),
       pass: s?.pass ?? null,
       failing: failingOf(s),
+      ...(s ? { limitCount: s.limits.length } : {}),
     };
   });
 }

@@ -28,9 +28,17 @@ const VHDL_RESERVED = new Set(
 /** Longest identifier we emit: C99 guarantees 63 significant initial characters (§5.2.4.1). */
 export const IDENT_MAX_LENGTH = 63;
 
+/**
+ * Signs of the trade spelled in ASCII the way engineers write them where only ASCII goes: "50 µs" → "50 us"
+ * (the SI prefix µ, U+00B5, and the Greek μ, U+03BC, it folds to), "Ω" → "ohm", "°" → "deg".
+ */
+export function transliterate(text: string): string {
+  return String(text).replace(/[µμ]/g, "u").replace(/[ΩΩ]/g, "ohm").replace(/°/g, "deg");
+}
+
 function words(text: string): string[] {
   // Letters and digits only (accents dropped by NFKD), runs of anything else become one separator.
-  return String(text)
+  return transliterate(text)
     .normalize("NFKD")
     .replace(/[\u0300-\u036f]/g, "")
     .replace(/[^A-Za-z0-9]+/g, " ")

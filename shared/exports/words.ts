@@ -3,6 +3,7 @@
  * and the C storage type. BigInt throughout, so W = 32 and the most negative code stay exact.
  * Hex digits per word follow IEEE 1364-2005 §17.2.9 memory files: ⌈W/4⌉ digits, no width in the file.
  */
+import { transliterate } from "./identifiers";
 import { checkInteger } from "../dsp/check";
 
 /** Word lengths the export helpers accept (the quantizer's W range). */
@@ -74,7 +75,7 @@ export function padText(text: string, width: number, fill = " "): string {
 
 /** Printable ASCII only, for comments in generated sources: accents dropped, anything else (newlines too) → "?". */
 export function asciiText(text: string): string {
-  return String(text)
+  return transliterate(text)
     .normalize("NFKD")
     .replace(/[\u0300-\u036f]/g, "")
     .replace(/[^\x20-\x7e]/g, "?");

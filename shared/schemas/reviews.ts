@@ -90,6 +90,8 @@ export const QueueItemSchema = z.object({
   canDecide: z.boolean(),
   pass: z.boolean().nullable(),
   failing: z.array(FailingLimitSchema),
+  /** How many acceptance limits the report checked (0 = not judged); absent without a report. */
+  limitCount: z.number().int().optional(),
 });
 export type QueueItem = z.infer<typeof QueueItemSchema>;
 export const ReviewQueueSchema = z.object({ items: z.array(QueueItemSchema) });

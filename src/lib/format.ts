@@ -95,3 +95,12 @@ export function formatDateTime(iso: string | null | undefined): string {
 export function formatDate(iso: string | null | undefined): string {
   return formatDateTime(iso).slice(0, 10);
 }
+
+/** How long a job took: "0.35 s" under 10 s (a tenth would read as "0.0 s"), "42 s", then minutes. */
+export function formatElapsed(ms: number): string {
+  if (!Number.isFinite(ms) || ms < 0) return "—";
+  if (ms < 10) return `${Math.max(1, Math.round(ms))} ms`;
+  if (ms < 1000) return `${Math.round(ms)} ms`;
+  if (ms < 10_000) return `${(ms / 1000).toFixed(2)} s`;
+  return formatDuration(ms / 1000);
+}

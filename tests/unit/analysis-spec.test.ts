@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { toAnalysisSpec } from "../../shared/analysis-spec";
+import { defaultSweep, toAnalysisSpec } from "../../shared/analysis-spec";
 import { AnalysisSpecSchema } from "../../shared/schemas/analysis";
 import { RevisionContentSchema } from "../../shared/schemas/designs";
 
@@ -15,7 +15,26 @@ describe("toAnalysisSpec", () => {
       limits: { pslDbMax: -35 },
     });
     const spec = AnalysisSpecSchema.parse(toAnalysisSpec(content, []));
-    expect(spec).toEqual(AnalysisSpecSchema.parse(content));
+    // Every analysis sweeps by default: W = 16 → 6 … 20 bits.
+    expect(spec).toEqual(AnalysisSpecSchema.parse({ ...content, sweep: { minBits: 6, maxBits: 20 } }));
+  });
+
+  it("sweeps W − 10 … W + 4 of the swept table by default, inside 2 … 32 bits, and keeps a sweep the author set", () => {
+    const base = RevisionContentSchema.parse({
+      kind: "filter",
+      fir: { kind: "upload", uploadId: 3, sampleRateHz: 1e6, passbands: [[0, 1e5]], stopbands: [[3e5, 5e5]] },
+      fixedPoint: { fir: { wordLength: 6, fractionLength: 5 } },
+    });
+    expect(defaultSweep(base)).toEqual({ minBits: 2, maxBits: 10 });
+    const wide = { ...base, fixedPoint: { fir: { wordLength: 30, fractionLength: 29 } } } as typeof base;
+    expect(defaultSweep(wide)).toEqual({ minBits: 20, maxBits: 32 });
+    const own = { ...base, sweep: { minBits: 4, maxBits: 5 } } as typeof base;
+    expect(
+      AnalysisSpecSchema.parse(toAnalysisSpec(own, [{ role: "fir", re: [0.5, 0.5], im: [0, 0] }])).sweep,
+    ).toEqual({
+      minBits: 4,
+      maxBits: 5,
+    });
   });
 
   it("replaces an uploaded waveform by its samples, complex values with im", () => {

@@ -1,19 +1,10 @@
 import type { Role } from "@shared/schemas/auth";
 import { AccountPage } from "@/features/account/components/account-page";
 import { UsersPage } from "@/features/admin-users/components/users-page";
-import { HomePage } from "@/features/home/components/home-page";
 import { TokensSection } from "@/features/tokens/components/tokens-section";
-import { ProjectsTable } from "@/features/projects/components/projects-table";
 import { hasAnyRole } from "@/lib/roles";
 import { useSessionUser } from "../shell";
 import { ForbiddenRoute } from "./not-found";
-
-/** `/`: the home page, with the projects feature's table composed in. */
-export function HomeRoute() {
-  return (
-    <HomePage renderProjects={(projects) => <ProjectsTable projects={projects} label="My projects" />} />
-  );
-}
 
 /** `/account`. */
 export function AccountRoute() {

@@ -15,6 +15,8 @@ const TONES: Record<TraceTone, string> = {
   ink: colors.ink[500],
   warn: colors.warn[600],
 };
+/** The dB range a level plot shows below its highest value (common practice for a display of sidelobes). */
+const DB_SPAN = 100;
 const AXIS = { stroke: colors.ink[700], grid: colors.paper[300], tick: colors.paper[400] };
 const FONT = '11px "JetBrains Mono", ui-monospace, monospace';
 
@@ -103,7 +105,10 @@ export default function SignalPlot({
         y:
           yAxis.min !== undefined || yAxis.max !== undefined
             ? { auto: false, range: [yAxis.min ?? -1, yAxis.max ?? 1] }
-            : {},
+            : yAxis.unit === "dB"
+              ? // Numerical floors (−150…−300 dB) would squash what matters: show the top DB_SPAN dB.
+                { range: (_u: uPlot, min: number, max: number) => [Math.max(min, max - DB_SPAN), max + 3] }
+              : {},
       },
       axes: [
         {
@@ -129,7 +134,9 @@ export default function SignalPlot({
         ...series.map((s) => ({
           label: s.label,
           stroke: TONES[s.tone],
-          width: 1.25,
+          // Fixed (copper) is dashed over a wider float trace, so equal curves still show both; limits dotted.
+          width: s.tone === "signal" ? 2 : 1.25,
+          ...(s.tone === "copper" ? { dash: [6, 3] } : s.tone === "warn" ? { dash: [2, 3] } : {}),
           points: { show: false },
           value: (_u: uPlot, v: number | null) => readout(v, s.unit),
         })),

@@ -1,13 +1,16 @@
 import { forwardRef, type ButtonHTMLAttributes } from "react";
 import { cn } from "@/lib/cn";
 
-type Variant = "primary" | "secondary" | "ghost" | "danger";
+type Variant = "primary" | "secondary" | "ghost" | "danger" | "danger-quiet";
 
 const VARIANTS: Record<Variant, string> = {
   primary: "bg-signal-700 text-white hover:bg-signal-800 border-signal-800",
   secondary: "bg-paper-50 text-ink-800 hover:bg-paper-200 border-paper-400",
   ghost: "bg-transparent text-ink-700 hover:bg-paper-200 border-transparent",
   danger: "bg-fail-600 text-white hover:bg-fail-700 border-fail-700",
+  // A destructive step offered on every row of a table: outlined, so a list does not read as a column of alarms;
+  // the confirm dialog it opens carries the solid `danger` button.
+  "danger-quiet": "bg-transparent text-fail-700 hover:bg-fail-50 border-paper-400 hover:border-fail-600",
 };
 
 /** A button; `primary` is for the one main action of a page or dialog. */

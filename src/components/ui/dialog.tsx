@@ -81,6 +81,7 @@ export function DialogActions({
   formId,
   onConfirm,
   variant = "primary",
+  disabled = false,
 }: {
   onCancel: () => void;
   label: string;
@@ -88,6 +89,8 @@ export function DialogActions({
   formId?: string;
   onConfirm?: () => void;
   variant?: "primary" | "danger";
+  /** The action waits for something in the dialog (e.g. a confirming checkbox). */
+  disabled?: boolean;
 }) {
   return (
     <>
@@ -97,6 +100,7 @@ export function DialogActions({
         form={formId}
         variant={variant}
         busy={busy}
+        disabled={disabled}
         onClick={onConfirm}
       >
         {label}

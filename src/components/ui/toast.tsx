@@ -1,7 +1,7 @@
 import { createContext, useCallback, useContext, useMemo, useState, type ReactNode } from "react";
 import { cn } from "@/lib/cn";
 
-type Tone = "pass" | "fail" | "neutral";
+type Tone = "pass" | "fail" | "warn" | "neutral";
 interface ToastItem {
   id: number;
   message: string;
@@ -31,6 +31,7 @@ export function ToastProvider({ children }: { children: ReactNode }) {
               "pointer-events-auto rounded border px-3 py-2 text-sm shadow-md",
               t.tone === "pass" && "border-pass-300 bg-pass-50 text-pass-800",
               t.tone === "fail" && "border-fail-300 bg-fail-50 text-fail-800",
+              t.tone === "warn" && "border-warn-300 bg-warn-50 text-warn-800",
               t.tone === "neutral" && "border-ink-700 bg-ink-900 text-ink-50",
             )}
           >

@@ -29,6 +29,18 @@ describe("parseEnv", () => {
     ).toBe("production");
   });
 
+  it("links mail to this server's own port unless PUBLIC_URL says otherwise", () => {
+    expect(parseEnv({ DATABASE_URL: "postgres://x" }).PUBLIC_URL).toBe("http://127.0.0.1:3000");
+    expect(parseEnv({ DATABASE_URL: "postgres://x", PORT: "3101" }).PUBLIC_URL).toBe("http://127.0.0.1:3101");
+    expect(parseEnv({ DATABASE_URL: "postgres://x", PORT: "8080", HOST: "0.0.0.0" }).PUBLIC_URL).toBe(
+      "http://127.0.0.1:8080",
+    );
+    expect(
+      parseEnv({ DATABASE_URL: "postgres://x", PORT: "3101", PUBLIC_URL: "https://tapwright.example" })
+        .PUBLIC_URL,
+    ).toBe("https://tapwright.example");
+  });
+
   it("coerces and checks the port", () => {
     expect(parseEnv({ DATABASE_URL: "postgres://x", PORT: "3101" }).PORT).toBe(3101);
     expect(() => parseEnv({ DATABASE_URL: "postgres://x", PORT: "70000" })).toThrow(/PORT/);

@@ -9,6 +9,7 @@ import { useAnalysis } from "../api/get-analysis";
 import { useRunAnalysis } from "../api/run-analysis";
 import { useFinishToast } from "../hooks/use-finish-toast";
 import { AnalysisDone, AnalysisFailed, AnalysisProgress } from "./analysis-status";
+import { SweepRange } from "./sweep-range";
 import { WhatIfPanel } from "./what-if-panel";
 
 // The server allows authors and reviewers who are members to start an analysis.
@@ -53,7 +54,7 @@ export function AnalysisSection({ revisionId }: { revisionId: number }) {
     body = (
       <AnalysisFailed analysis={analysis} onRetry={() => run.mutate()} busy={run.isPending} canRun={canRun} />
     );
-  else body = <AnalysisDone analysis={analysis} revisionId={revisionId} />;
+  else body = <AnalysisDone analysis={analysis} revisionId={revisionId} detail={revision.data} />;
 
   const detail = revision.data;
   const authorDraft =
@@ -67,7 +68,14 @@ export function AnalysisSection({ revisionId }: { revisionId: number }) {
         {run.isError && <ErrorState title="The analysis could not be started" error={run.error} />}
         {body}
         {authorDraft && (
+          <SweepRange
+            key={JSON.stringify([detail.content.sweep ?? null, detail.content.fixedPoint])}
+            detail={detail}
+          />
+        )}
+        {authorDraft && (
           <WhatIfPanel
+            key={JSON.stringify(detail.content.fixedPoint)}
             revisionId={revisionId}
             detail={detail}
             saved={analysis?.state === "done" ? analysis.report : null}

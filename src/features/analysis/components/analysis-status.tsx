@@ -1,12 +1,16 @@
 import { Link } from "react-router-dom";
 import type { AnalysisReport } from "@shared/dsp/analysis";
 import type { AnalysisStatus } from "@shared/schemas/analyses";
+import type { RevisionDetail } from "@shared/schemas/designs";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
-import { formatDuration } from "@/lib/format";
+import { VERDICT_TONE } from "@/lib/verdict";
+import { VERDICT_WORDS, verdictOf } from "@shared/report-words";
+import { formatDuration, formatElapsed } from "@/lib/format";
 import { limitChips } from "../lib/metric-rows";
 import { percent, secondsLeft, stageLabel } from "../lib/progress";
 import { LimitChipStrip } from "./limit-chips";
+import { UseRecommendedW } from "./use-recommended-w";
 
 /** A labelled progress bar with the stage in words and the time left. */
 export function AnalysisProgress({ analysis, nowMs }: { analysis: AnalysisStatus; nowMs: number }) {
@@ -39,18 +43,33 @@ export function AnalysisProgress({ analysis, nowMs }: { analysis: AnalysisStatus
 }
 
 /** A finished analysis: verdict, the chips, the recommended word length, and the way to the report. */
-export function AnalysisDone({ analysis, revisionId }: { analysis: AnalysisStatus; revisionId: number }) {
+export function AnalysisDone({
+  analysis,
+  revisionId,
+  detail,
+}: {
+  analysis: AnalysisStatus;
+  revisionId: number;
+  detail?: RevisionDetail;
+}) {
   const report = analysis.report as unknown as AnalysisReport | null;
   if (!report) return null;
   const passed = report.limits.filter((c) => c.pass).length;
+  const verdict = verdictOf(report);
   return (
     <div className="flex flex-col gap-3">
       <div className="flex flex-wrap items-center gap-3">
-        <Badge tone={report.pass ? "pass" : "fail"}>{report.pass ? "All limits pass" : "Limits fail"}</Badge>
+        <Badge tone={VERDICT_TONE[verdict]}>{VERDICT_WORDS[verdict]}</Badge>
         <span className="text-sm text-ink-700">
-          <span className="font-mono">{passed}</span> of{" "}
-          <span className="font-mono">{report.limits.length}</span> limits pass
-          {report.sweep && (
+          {verdict === "not-judged" ? (
+            <>set acceptance limits to judge this revision</>
+          ) : (
+            <>
+              <span className="font-mono">{passed}</span> of{" "}
+              <span className="font-mono">{report.limits.length}</span> limits pass
+            </>
+          )}
+          {report.sweep && verdict !== "not-judged" && (
             <>
               {" · smallest passing word length "}
               <span className="font-mono">
@@ -63,7 +82,7 @@ export function AnalysisDone({ analysis, revisionId }: { analysis: AnalysisStatu
           {analysis.durationMs !== null && (
             <>
               {" · computed in "}
-              <span className="font-mono">{(analysis.durationMs / 1000).toFixed(1)} s</span>
+              <span className="font-mono">{formatElapsed(analysis.durationMs)}</span>
             </>
           )}
         </span>
@@ -74,6 +93,7 @@ export function AnalysisDone({ analysis, revisionId }: { analysis: AnalysisStatu
           Open the report
         </Link>
       </div>
+      {detail && <UseRecommendedW report={report} detail={detail} />}
       <LimitChipStrip groups={limitChips(report)} />
     </div>
   );

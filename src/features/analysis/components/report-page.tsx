@@ -1,11 +1,14 @@
-import { Link, useParams } from "react-router-dom";
+import { Link, useNavigate, useParams } from "react-router-dom";
 import type { AnalysisReport } from "@shared/dsp/analysis";
 import { Badge } from "@/components/ui/badge";
 import { CopyButton } from "@/components/ui/copy-button";
 import { PageHeader, Section } from "@/components/ui/page";
 import { EmptyState, ErrorState, TableSkeleton } from "@/components/ui/states";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
+import { gainText, wordText } from "@shared/report-format";
+import { VERDICT_WORDS, verdictOf } from "@shared/report-words";
 import { ApiError } from "@/lib/api-client";
+import { VERDICT_TONE } from "@/lib/verdict";
 import { formatDateTime, formatDb } from "@/lib/format";
 import { useReport, type ReportDocument } from "../api/get-report";
 import { assumptions } from "../lib/assumptions";
@@ -15,6 +18,8 @@ import { DatapathTable } from "./datapath-table";
 import { LimitChipStrip } from "./limit-chips";
 import { MetricsTable } from "./metrics-table";
 import { ReportPlots } from "./report-plots";
+import { UseRecommendedW } from "./use-recommended-w";
+import { useRevision } from "@/features/revisions/api/get-revision";
 
 const LINK = "inline-flex h-8 items-center rounded border px-3 text-sm font-medium";
 
@@ -93,11 +98,7 @@ function ReportView({ id, doc }: { id: number; doc: ReportDocument }) {
       />
       <Section
         title="Acceptance limits"
-        action={
-          <Badge tone={report.pass ? "pass" : "fail"}>
-            {report.pass ? "All limits pass" : "Limits fail"}
-          </Badge>
-        }
+        action={<Badge tone={VERDICT_TONE[verdictOf(report)]}>{VERDICT_WORDS[verdictOf(report)]}</Badge>}
       >
         <LimitChipStrip groups={limitChips(report)} />
       </Section>
@@ -109,7 +110,7 @@ function ReportView({ id, doc }: { id: number; doc: ReportDocument }) {
       </Section>
       {report.sweep && (
         <Section title="Bit-width sweep">
-          <SweepTable report={report} />
+          <SweepTable report={report} revisionId={id} />
         </Section>
       )}
       {report.doppler && (
@@ -149,14 +150,21 @@ const SWEEP_COLUMNS: Record<AnalysisReport["kind"], [string, string][]> = {
   ],
 };
 
-function SweepTable({ report }: { report: AnalysisReport }) {
+function SweepTable({ report, revisionId }: { report: AnalysisReport; revisionId: number }) {
   const sweep = report.sweep!;
   const cols = SWEEP_COLUMNS[report.kind];
-  const best = sweep.smallestPassingWordLength;
+  const judged = verdictOf(report) !== "not-judged";
+  const best = judged ? sweep.smallestPassingWordLength : null;
+  const revision = useRevision(revisionId);
+  const navigate = useNavigate();
   return (
     <div className="flex flex-col gap-2">
-      <p className="text-sm text-ink-800">
-        {best === null ? (
+      <p className="flex flex-wrap items-center gap-x-3 gap-y-1 text-sm text-ink-800">
+        {!judged ? (
+          <>
+            No acceptance limits are set: no word length is judged or recommended. Set limits on the revision.
+          </>
+        ) : best === null ? (
           <>No word length in the sweep meets every limit.</>
         ) : (
           <>
@@ -164,7 +172,20 @@ function SweepTable({ report }: { report: AnalysisReport }) {
             that meets every limit (table
             {sweep.tables.length > 1 ? "s" : ""} <span className="font-mono">{sweep.tables.join(", ")}</span>{" "}
             varied, integer bits kept).
+            {best === Math.min(...sweep.rows.map((r) => r.wordLength)) && (
+              <>
+                {" "}
+                It is the lowest W tried: a smaller one may pass too; widen the sweep on the revision page.
+              </>
+            )}
           </>
+        )}
+        {revision.data && (
+          <UseRecommendedW
+            report={report}
+            detail={revision.data}
+            onApplied={() => navigate(`/revisions/${revisionId}`)}
+          />
         )}
       </p>
       <Table label="Bit-width sweep">
@@ -191,7 +212,11 @@ function SweepTable({ report }: { report: AnalysisReport }) {
               ))}
               <Td className="text-xs text-ink-700">{r.method}</Td>
               <Td>
-                <Badge tone={r.pass ? "pass" : "fail"}>{r.pass ? "Pass" : "Fail"}</Badge>
+                {judged ? (
+                  <Badge tone={r.pass ? "pass" : "fail"}>{r.pass ? "Pass" : "Fail"}</Badge>
+                ) : (
+                  <span className="text-xs text-ink-600">not judged</span>
+                )}
               </Td>
             </Tr>
           ))}
@@ -253,13 +278,12 @@ function TablesTable({ report }: { report: AnalysisReport }) {
               <Td className="font-mono">{t.role}</Td>
               <Td numeric>{t.length}</Td>
               <Td className="font-mono text-[13px]">
-                {fp.signed ? "s" : "u"}Q{fp.wordLength - fp.fractionLength}.{fp.fractionLength} (W{" "}
-                {fp.wordLength}, {fp.scaling})
+                {wordText(fp)}, {fp.scaling}
               </Td>
               <Td className="text-xs">
                 {fp.rounding} / {fp.overflow}
               </Td>
-              <Td numeric>{t.gain.toPrecision(6)}</Td>
+              <Td numeric>{gainText(t.gain)}</Td>
               <Td numeric className={t.overflowCount > 0 ? "text-fail-700" : undefined}>
                 {t.overflowCount}
               </Td>

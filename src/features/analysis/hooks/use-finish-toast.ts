@@ -1,19 +1,21 @@
 import { QueryObserver, useQueryClient } from "@tanstack/react-query";
 import { useEffect } from "react";
 import type { AnalysisStatus } from "@shared/schemas/analyses";
+import { verdictOf } from "@shared/report-words";
 import { useToast } from "@/components/ui/toast";
 import { analysisQueryOptions } from "../api/get-analysis";
 
 // Revisions with a watcher alive, so two mounts (or a remount) never toast twice.
 const watching = new Set<number>();
 
-function finishMessage(a: AnalysisStatus): [string, "pass" | "fail"] {
+function finishMessage(a: AnalysisStatus): [string, "pass" | "fail" | "warn"] {
   if (a.state === "failed") return [`Analysis failed: ${a.error ?? "no reason given"}`, "fail"];
-  const pass = a.report?.pass;
-  return [
-    `Analysis finished: ${pass === undefined ? "report ready" : pass ? "every limit passes" : "some limits fail"}`,
-    pass === false ? "fail" : "pass",
-  ];
+  const report = a.report as { limits?: Array<{ pass: boolean }> } | null;
+  if (!report?.limits) return ["Analysis finished: report ready", "pass"];
+  const verdict = verdictOf({ limits: report.limits });
+  if (verdict === "not-judged")
+    return ["Analysis finished: not judged, no acceptance limits are set", "warn"];
+  return [`Analysis finished: ${verdict === "pass" ? "every limit passes" : "some limits fail"}`, verdict];
 }
 
 /**

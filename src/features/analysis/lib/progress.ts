@@ -18,6 +18,8 @@ export function secondsLeft(progress: number, startedAt: string | null, nowMs: n
 
 /** What each DSP-core stage (shared/dsp/analysis.ts progress callbacks) means to a person. */
 const STAGES: Record<string, string> = {
+  // Set by the server's worker (server/services/analyses.ts) while it reads the revision and its tables.
+  load: "Loading the revision",
   generate: "Generating the tables",
   quantize: "Quantizing",
   float: "Compressing the float reference",

@@ -153,9 +153,14 @@ export function tracePlots(
       fileName: `report-coefficient-error-${role}`,
       x: { label: "Coefficient index", unit: "", values: x },
       // A real table's Q error is identically zero: leave it out rather than draw a flat line.
-      series: seriesOf(trace as unknown as Record<string, unknown>, x.length, "LSB").filter(
-        (t) => t.label !== "Q" || t.values.some((v) => v !== 0),
-      ),
+      series: (() => {
+        const all = seriesOf(trace as unknown as Record<string, unknown>, x.length, "LSB");
+        const real = !all.some((t) => t.label === "Q" && t.values.some((v) => v !== 0));
+        // A real table has one error per tap: "Error", not "I" of an I/Q pair.
+        return real
+          ? all.filter((t) => t.label !== "Q").map((t) => (t.label === "I" ? { ...t, label: "Error" } : t))
+          : all;
+      })(),
       yAxis: { label: "ĥ − g·h", unit: "LSB" },
     });
   }
@@ -223,8 +228,9 @@ export function sweepPlots(report: Pick<AnalysisReport, "sweep" | "limits" | "ki
   const sweep = report.sweep;
   if (!sweep || sweep.rows.length === 0) return [];
   const x = Float64Array.from(sweep.rows, (r) => r.wordLength);
+  // No limits: every W passes vacuously, so no W is marked as the recommendation.
   const markers: PlotMarker[] =
-    sweep.smallestPassingWordLength === null
+    sweep.smallestPassingWordLength === null || report.limits.length === 0
       ? []
       : [{ x: sweep.smallestPassingWordLength, label: `W = ${sweep.smallestPassingWordLength}` }];
   const plots: ReportPlot[] = [];

@@ -1,4 +1,5 @@
 import { useFormContext, useWatch } from "react-hook-form";
+import { WrapCaution } from "@/components/wrap-caution";
 import type { DesignFormValues } from "../lib/form-values";
 import { qFormat } from "../lib/derived-figures";
 import { FieldGroup, NumberField, SelectField } from "./form-controls";
@@ -14,9 +15,14 @@ const ROLE_NAMES: Record<Role, string> = {
 /** Word length, fraction length, sign, scaling, rounding and overflow of one table, with its Q format. */
 export function FixedPointFields({ role }: { role: Role }) {
   const { control, register } = useFormContext<DesignFormValues>();
-  const [w, f, signed] = useWatch({
+  const [w, f, signed, overflow] = useWatch({
     control,
-    name: [`fixedPoint.${role}.wordLength`, `fixedPoint.${role}.fractionLength`, `fixedPoint.${role}.signed`],
+    name: [
+      `fixedPoint.${role}.wordLength`,
+      `fixedPoint.${role}.fractionLength`,
+      `fixedPoint.${role}.signed`,
+      `fixedPoint.${role}.overflow`,
+    ],
   });
   return (
     <FieldGroup
@@ -79,6 +85,7 @@ export function FixedPointFields({ role }: { role: Role }) {
           ["wrap", "Wrap (two's complement)"],
         ]}
       />
+      {role === "tx" && overflow === "wrap" && <WrapCaution className="sm:col-span-3" />}
     </FieldGroup>
   );
 }

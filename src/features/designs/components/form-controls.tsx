@@ -2,11 +2,12 @@
  * Inputs of the new-design form, bound to it through react-hook-form's context: a labelled number with its unit,
  * a select, and a radio group. Each shows the message of its own field (client schema or server answer).
  */
-import type { ReactNode } from "react";
-import { get, useFormContext, type FieldPath } from "react-hook-form";
+import { useEffect, useState, type ReactNode } from "react";
+import { get, useController, useFormContext, type FieldPath } from "react-hook-form";
 import { Field } from "@/components/ui/field";
 import { Input } from "@/components/ui/input";
 import { cn } from "@/lib/cn";
+import { notANumberMessage, parseNumberText } from "@/lib/parse-number";
 import type { DesignFormValues } from "../lib/form-values";
 
 type Name = FieldPath<DesignFormValues>;
@@ -20,7 +21,14 @@ export function useFieldError(name: Name): string | undefined {
 export const SELECT_CLASS =
   "h-8 w-full rounded border bg-white px-2 text-sm text-ink-900 focus:border-signal-600 focus:outline-none focus-visible:outline-2 focus-visible:outline-signal-500";
 
-/** A number field with its unit after the label, e.g. "Bandwidth (MHz)". Empty reads as NaN = not given. */
+const numberText = (v: unknown): string =>
+  typeof v === "number" ? (Number.isNaN(v) ? "" : String(v)) : typeof v === "string" ? v : "";
+
+/**
+ * A number field with its unit after the label, e.g. "Bandwidth (MHz)". Empty reads as NaN = not given.
+ * A text box read strictly (src/lib/parse-number.ts): "1O" or "50 us" is refused by name, not read as 1 or 50.
+ * The box keeps the text as typed ("1." while typing 1.5) and the form holds its parsed value.
+ */
 export function NumberField({
   name,
   label,
@@ -34,20 +42,43 @@ export function NumberField({
   hint?: ReactNode;
   step?: string;
 }) {
-  const { register } = useFormContext<DesignFormValues>();
+  const { control } = useFormContext<DesignFormValues>();
+  const { field } = useController({ control, name });
   const error = useFieldError(name);
+  const [text, setText] = useState(() => numberText(field.value));
+  // A value set from outside (reset, "use this W") replaces the text; the user's own typing does not.
+  useEffect(() => {
+    const held = field.value as unknown;
+    const mine = parseNumberText(text);
+    const same =
+      typeof held === "number" && typeof mine === "number"
+        ? Object.is(held, mine) || held === mine
+        : held === mine;
+    if (!same) setText(numberText(held));
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- only an outside change of the value matters
+  }, [field.value]);
+  const held = field.value as unknown;
+  const message = error && typeof held === "string" ? notANumberMessage(held, unit) : error;
   return (
-    <Field label={unit ? `${label} (${unit})` : label} hint={hint} error={error}>
+    <Field label={unit ? `${label} (${unit})` : label} hint={hint} error={message}>
       {({ id, describedBy, invalid }) => (
         <Input
           id={id}
-          type="number"
-          inputMode="decimal"
-          step={step}
+          ref={field.ref}
+          name={field.name}
+          type="text"
+          inputMode={step === "1" ? "numeric" : "decimal"}
+          autoComplete="off"
+          spellCheck={false}
           aria-describedby={describedBy}
           invalid={invalid}
           className="text-right font-mono"
-          {...register(name, { valueAsNumber: true })}
+          value={text}
+          onChange={(e) => {
+            setText(e.target.value);
+            field.onChange(parseNumberText(e.target.value));
+          }}
+          onBlur={field.onBlur}
         />
       )}
     </Field>

@@ -1,6 +1,6 @@
 import { useState } from "react";
 import { useQuery } from "@tanstack/react-query";
-import { FormProvider, useForm, useFormContext, useWatch, type FieldPath } from "react-hook-form";
+import { FormProvider, get, useForm, useFormContext, useWatch, type FieldPath } from "react-hook-form";
 import { Link, useNavigate, useParams } from "react-router-dom";
 import type { Upload } from "@shared/schemas/designs";
 import { Button } from "@/components/ui/button";
@@ -107,15 +107,25 @@ function DesignForm({ projectId }: { projectId: number }) {
       onSuccess: (r) => navigate(`/revisions/${r.revision.id}`),
       onError: (err) => {
         const messages = err instanceof ApiError ? fieldMessages(values, serverIssues(err)) : {};
-        const { root, ...fields } = messages;
-        for (const [path, message] of Object.entries(fields))
+        const unplaced: string[] = [];
+        let placed = 0;
+        for (const [path, message] of Object.entries(messages)) {
+          // Only an input shows a message: a path naming a group (or nothing) goes to the general alert.
+          const value = get(values, path) as unknown;
+          if (path === "root" || value === undefined || (typeof value === "object" && value !== null)) {
+            unplaced.push(message);
+            continue;
+          }
           form.setError(
             path as FieldPath<DesignFormValues>,
             { type: "server", message },
-            { shouldFocus: true },
+            { shouldFocus: placed === 0 },
           );
+          placed++;
+        }
         // Whatever names no field is shown above the button; the form keeps every value typed.
-        if (Object.keys(fields).length === 0 || root) setGeneral(root ?? err.message);
+        if (unplaced.length > 0 || placed === 0)
+          setGeneral(unplaced.length > 0 ? unplaced.join("; ") : err.message);
       },
     });
   });

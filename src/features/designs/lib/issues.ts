@@ -6,7 +6,10 @@
 import type { FieldErrors, Resolver } from "react-hook-form";
 import { CreateDesignSchema } from "@shared/schemas/designs";
 import type { DesignFormValues } from "./form-values";
+import { API_WORDS, friendlyMessage, generatorMessage } from "@/lib/friendly-message";
 import { formPathOf, toCreateInput } from "./to-create-input";
+
+export { friendlyMessage, generatorMessage };
 
 /** The part of a zod issue this module reads. */
 export interface IssueLike {
@@ -30,10 +33,16 @@ export function flattenIssues(issues: ReadonlyArray<IssueLike>): IssueLike[] {
   return out;
 }
 
-/** Zod's stock wording for a missing number reads oddly next to a labelled input. */
-export function friendlyMessage(issue: IssueLike): string {
-  if (/expected number, received (undefined|NaN)/.test(issue.message)) return "enter a number";
-  return issue.message;
+/**
+ * A whole-source issue (path ends at `content.tx` / `content.fir`) belongs to the parameter its message starts
+ * with: the generators name the offending parameter first ("sampleRateHz (…) must be ≥ …").
+ */
+function atNamedParameter(issue: IssueLike): IssueLike {
+  const p = issue.path;
+  if (p.length !== 2 || p[0] !== "content" || (p[1] !== "tx" && p[1] !== "fir")) return issue;
+  const first = /^([a-zA-Z]+)\b/.exec(issue.message)?.[1];
+  if (!first || !(first in API_WORDS)) return issue;
+  return { ...issue, path: [...p, first], message: generatorMessage(issue.message) };
 }
 
 /** First message per form field for the given issues. */
@@ -42,7 +51,8 @@ export function fieldMessages(
   issues: ReadonlyArray<IssueLike>,
 ): Record<string, string> {
   const out: Record<string, string> = {};
-  for (const issue of flattenIssues(issues)) {
+  for (const flat of flattenIssues(issues)) {
+    const issue = atNamedParameter(flat);
     const key = formPathOf(
       values,
       issue.path.filter((p): p is string | number => typeof p !== "symbol"),

@@ -1,14 +1,13 @@
 import { Link, useParams } from "react-router-dom";
-import { RoleBadges } from "@/components/role-badges";
 import { PageHeader, Section } from "@/components/ui/page";
 import { PageLoading, PageNotFound } from "@/components/ui/page-states";
-import { EmptyState, ErrorState } from "@/components/ui/states";
-import { Table, Td, Th, Tr } from "@/components/ui/table";
+import { ErrorState } from "@/components/ui/states";
 import { DesignsTable, NewDesignLink } from "@/features/designs/components/designs-table";
 import { useMe } from "@/features/auth/api/get-me";
 import { ApiError } from "@/lib/api-client";
 import { formatDate } from "@/lib/format";
 import { useProject } from "../api/get-project";
+import { MembersSection } from "./members-section";
 
 /** /projects/:id: header, the designs table and members. */
 export function ProjectPage() {
@@ -17,7 +16,9 @@ export function ProjectPage() {
   const valid = Number.isInteger(projectId) && projectId > 0;
   const query = useProject(valid ? projectId : -1);
   // Creating needs the author role (the server also requires membership, which seeing the page implies).
-  const canCreate = useMe().data?.roles.includes("author") ?? false;
+  const roles = useMe().data?.roles ?? [];
+  const canCreate = roles.includes("author");
+  const isAdmin = roles.includes("admin");
   if (!valid || (query.error instanceof ApiError && query.error.status === 404)) {
     return (
       <PageNotFound title="Project not found" message="This project does not exist or you are not a member" />
@@ -43,7 +44,7 @@ export function ProjectPage() {
             <p className="mt-1 text-xs">
               Slug <span className="font-mono">{project.slug}</span> · created{" "}
               <span className="font-mono">{formatDate(project.createdAt)}</span> · {project.memberCount}{" "}
-              members
+              {project.memberCount === 1 ? "member" : "members"}
             </p>
           </>
         }
@@ -52,30 +53,7 @@ export function ProjectPage() {
         <DesignsTable projectId={project.id} canCreate={canCreate} />
       </Section>
       <Section title={`Members (${members.length})`}>
-        {members.length === 0 ? (
-          <EmptyState title="No members">An admin can add members from the admin pages.</EmptyState>
-        ) : (
-          <Table label="Members">
-            <thead>
-              <tr>
-                <Th>Name</Th>
-                <Th>User name</Th>
-                <Th>Roles</Th>
-              </tr>
-            </thead>
-            <tbody>
-              {members.map((m) => (
-                <Tr key={m.id}>
-                  <Td className="font-medium">{m.displayName}</Td>
-                  <Td className="font-mono text-[13px] text-ink-700">{m.username}</Td>
-                  <Td>
-                    <RoleBadges roles={m.roles} />
-                  </Td>
-                </Tr>
-              ))}
-            </tbody>
-          </Table>
-        )}
+        <MembersSection projectId={project.id} members={members} manage={isAdmin} />
       </Section>
     </>
   );

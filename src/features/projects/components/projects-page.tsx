@@ -1,14 +1,19 @@
 import { useEffect, useRef, useState } from "react";
 import { useNavigationType, useSearchParams } from "react-router-dom";
+import { Button } from "@/components/ui/button";
 import { Input } from "@/components/ui/input";
 import { PageHeader } from "@/components/ui/page";
 import { EmptyState, ErrorState, TableSkeleton } from "@/components/ui/states";
 import { useProjects } from "../api/get-projects";
+import { useMe } from "@/features/auth/api/get-me";
+import { CreateProjectDialog } from "./create-project-dialog";
 import { ProjectsTable } from "./projects-table";
 
 /** /projects: every visible project, filtered by `?q=` so a filtered view can be linked. */
 export function ProjectsPage() {
   const projects = useProjects();
+  const isAdmin = useMe().data?.roles.includes("admin") ?? false;
+  const [creating, setCreating] = useState(false);
   const [params, setParams] = useSearchParams();
   const urlQ = params.get("q") ?? "";
   // The field keeps its own state: the URL update is a router transition, and a controlled value read
@@ -32,7 +37,15 @@ export function ProjectsPage() {
       <PageHeader
         title="Projects"
         subtitle={projects.data ? `${projects.data.length} visible to you` : "Programmes you are a member of"}
+        action={
+          isAdmin ? (
+            <Button variant="primary" onClick={() => setCreating(true)}>
+              New project
+            </Button>
+          ) : undefined
+        }
       />
+      {isAdmin && <CreateProjectDialog open={creating} onClose={() => setCreating(false)} />}
       <div className="mb-3 flex items-center gap-3">
         <label htmlFor="project-search" className="sr-only">
           Search projects
@@ -63,8 +76,8 @@ export function ProjectsPage() {
       ) : projects.isError ? (
         <ErrorState error={projects.error} onRetry={() => void projects.refetch()} />
       ) : projects.data.length === 0 ? (
-        <EmptyState title="You are not a member of any project yet">
-          Ask an admin to add you to a project.
+        <EmptyState title={isAdmin ? "No projects yet" : "You are not a member of any project yet"}>
+          {isAdmin ? "Create the first one with New project." : "Ask an admin to add you to a project."}
         </EmptyState>
       ) : rows.length === 0 ? (
         <EmptyState title={`No project matches “${q}”`}>

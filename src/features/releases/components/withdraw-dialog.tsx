@@ -101,7 +101,7 @@ export function WithdrawAction({ release, size = "sm" }: { release: Release; siz
   if (release.withdrawn) return null;
   return (
     <>
-      <Button size={size} variant="danger" onClick={() => setOpen(true)}>
+      <Button size={size} variant={size === "sm" ? "danger-quiet" : "danger"} onClick={() => setOpen(true)}>
         Withdraw…
       </Button>
       <WithdrawDialog open={open} onClose={() => setOpen(false)} release={release} />

@@ -9,6 +9,7 @@ import { chipOf } from "../lib/figures";
 /** The verdict of a queued revision: its failing limits as chips, or the pass in words. */
 function Verdict({ item }: { item: QueueItem }) {
   if (item.pass === null) return <span className="text-xs text-ink-600">no report</span>;
+  if (item.limitCount === 0) return <Badge tone="warn">Not judged: no limits set</Badge>;
   if (item.failing.length === 0) return <Badge tone="pass">All limits pass</Badge>;
   return (
     <ul

@@ -1,4 +1,6 @@
 import { Link } from "react-router-dom";
+import { VERDICT_WORDS, verdictOf } from "@shared/report-words";
+import { VERDICT_TONE } from "@/lib/verdict";
 import type { ReviewDecision, ReviewPage } from "@shared/schemas/reviews";
 import { Badge } from "@/components/ui/badge";
 import { Section } from "@/components/ui/page";
@@ -34,8 +36,10 @@ function ReportSummaryView({ page }: { page: ReviewPage }) {
   return (
     <div className="flex flex-col gap-3">
       <p className="flex flex-wrap items-center gap-x-3 gap-y-1 text-sm text-ink-800">
-        <Badge tone={report.pass ? "pass" : "fail"}>
-          {report.pass ? "All limits pass" : `${failing} limit${failing === 1 ? "" : "s"} fail`}
+        <Badge tone={VERDICT_TONE[verdictOf(report)]}>
+          {verdictOf(report) === "fail"
+            ? `${failing} limit${failing === 1 ? "" : "s"} fail`
+            : VERDICT_WORDS[verdictOf(report)]}
         </Badge>
         <span className="inline-flex items-center gap-1.5">
           Report hash <HashText value={report.reportHash} label="report hash" />

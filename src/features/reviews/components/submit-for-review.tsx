@@ -16,6 +16,9 @@ import { shortHash } from "../lib/figures";
  */
 export function SubmitForReview({ detail, blocked }: { detail: RevisionDetail; blocked: boolean }) {
   const [open, setOpen] = useState(false);
+  // No acceptance limits: the report judged nothing, so submitting asks for an explicit yes.
+  const unjudged = Object.values(detail.content.limits ?? {}).every((v) => v === undefined);
+  const [withoutLimits, setWithoutLimits] = useState(false);
   const analysis = useAnalysis(detail.revision.id);
   const submit = useSubmitRevision(detail.revision.id);
   const qc = useQueryClient();
@@ -48,8 +51,9 @@ export function SubmitForReview({ detail, blocked }: { detail: RevisionDetail; b
         footer={
           <DialogActions
             onCancel={() => setOpen(false)}
-            label={`Submit ${r}`}
+            label={unjudged ? `Submit ${r} without limits` : `Submit ${r}`}
             busy={submit.isPending}
+            disabled={unjudged && !withoutLimits}
             onConfirm={() =>
               submit.mutate(undefined, {
                 onSuccess: () => {
@@ -64,6 +68,24 @@ export function SubmitForReview({ detail, blocked }: { detail: RevisionDetail; b
         }
       >
         <div className="flex flex-col gap-2 text-sm text-ink-800">
+          {unjudged && (
+            <div role="note" className="rounded border border-warn-100 bg-warn-50 px-3 py-2 text-warn-800">
+              <p className="font-medium">Not judged: {r} has no acceptance limits.</p>
+              <p>
+                The report measures every figure but checks none, so the reviewer has nothing to hold it to.
+                Set limits on the revision page, or confirm that this is intended.
+              </p>
+              <label className="mt-2 flex items-center gap-2 text-ink-900">
+                <input
+                  type="checkbox"
+                  className="accent-signal-700"
+                  checked={withoutLimits}
+                  onChange={(e) => setWithoutLimits(e.target.checked)}
+                />
+                Submit without acceptance limits
+              </label>
+            </div>
+          )}
           <p>This cannot be undone:</p>
           <ul className="list-disc pl-5">
             <li>

@@ -7,6 +7,9 @@ import type { RevisionContent } from "@shared/schemas/designs";
 import { Button } from "@/components/ui/button";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { cn } from "@/lib/cn";
+import { friendlyResolver } from "@/lib/friendly-message";
+import { parseNumberText } from "@/lib/parse-number";
+import { WrapCaution } from "@/components/wrap-caution";
 import { useUpdateRevision } from "../api/update-revision";
 import { lsb, qFormat, qRange } from "../lib/q-format";
 import { placeServerIssues } from "../lib/server-issues";
@@ -95,7 +98,7 @@ interface SectionProps {
 function Editor({ revisionId, content, onDirtyChange }: Omit<SectionProps, "editable">) {
   const update = useUpdateRevision(revisionId);
   const form = useForm<FormIn, unknown, FormOut>({
-    resolver: zodResolver(FormSchema),
+    resolver: friendlyResolver(zodResolver(FormSchema)),
     mode: "onChange",
     defaultValues: { fixedPoint: content.fixedPoint as Record<string, Spec> },
   });
@@ -122,13 +125,14 @@ function Editor({ revisionId, content, onDirtyChange }: Omit<SectionProps, "edit
       <div className="flex flex-col items-end gap-0.5">
         <input
           id={id}
-          type="number"
-          step={1}
+          type="text"
+          inputMode="numeric"
+          autoComplete="off"
           aria-label={`${role} ${label}`}
           aria-invalid={error ? true : undefined}
           aria-describedby={error ? `${id}-error` : undefined}
           className={cn(control, "w-16 text-right font-mono", error && "border-fail-600")}
-          {...register(`fixedPoint.${role}.${key}`, { valueAsNumber: true })}
+          {...register(`fixedPoint.${role}.${key}`, { setValueAs: parseNumberText })}
         />
         {error && (
           <span id={`${id}-error`} role="alert" className="max-w-40 text-right text-xs text-fail-700">
@@ -200,6 +204,7 @@ function Editor({ revisionId, content, onDirtyChange }: Omit<SectionProps, "edit
           ))}
         </tbody>
       </Table>
+      {values?.tx?.overflow === "wrap" && <WrapCaution />}
       <div className="flex items-center justify-end gap-2">
         {formState.errors.root?.server && (
           <p role="alert" className="mr-auto text-sm text-fail-700">
@@ -220,5 +225,12 @@ function Editor({ revisionId, content, onDirtyChange }: Omit<SectionProps, "edit
 /** Word length, fraction length and modes per table: a form on an editable draft, a table otherwise. */
 export function FixedPointSection({ editable, ...props }: SectionProps) {
   const specs = Object.entries(props.content.fixedPoint) as Array<[string, Spec]>;
-  return editable ? <Editor {...props} /> : <ReadOnly specs={specs} />;
+  if (editable) return <Editor {...props} />;
+  const wrapTx = specs.some(([role, s]) => role === "tx" && s.overflow === "wrap");
+  return (
+    <div className="flex flex-col gap-2">
+      <ReadOnly specs={specs} />
+      {wrapTx && <WrapCaution />}
+    </div>
+  );
 }

@@ -9,6 +9,8 @@ import { Field } from "@/components/ui/field";
 import { Input } from "@/components/ui/input";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { formatDb } from "@/lib/format";
+import { friendlyResolver } from "@/lib/friendly-message";
+import { parseNumberText } from "@/lib/parse-number";
 import { useUpdateRevision } from "../api/update-revision";
 import { placeServerIssues } from "../lib/server-issues";
 
@@ -37,7 +39,10 @@ const keysFor = (kind: RevisionContent["kind"]) =>
   (Object.keys(LIMITS) as LimitKey[]).filter((k) => LIMITS[k].kinds.includes(kind));
 
 /** An empty box means "not checked": the schema wants the key absent, not NaN. */
-const optionalNumber = (v: unknown) => (v === "" || v === null || v === undefined ? undefined : Number(v));
+const optionalNumber = (v: unknown) => {
+  const n = parseNumberText(v);
+  return typeof n === "number" && Number.isNaN(n) ? undefined : n;
+};
 
 function ReadOnly({ content }: { content: RevisionContent }) {
   return (
@@ -79,7 +84,7 @@ interface SectionProps {
 function Editor({ revisionId, content, onDirtyChange }: Omit<SectionProps, "editable">) {
   const update = useUpdateRevision(revisionId);
   const { register, handleSubmit, formState, setError, reset, watch } = useForm<FormIn, unknown, FormOut>({
-    resolver: zodResolver(FormSchema),
+    resolver: friendlyResolver(zodResolver(FormSchema)),
     mode: "onChange",
     defaultValues: { limits: content.limits },
   });
@@ -124,8 +129,9 @@ function Editor({ revisionId, content, onDirtyChange }: Omit<SectionProps, "edit
             {({ id, describedBy, invalid }) => (
               <Input
                 id={id}
-                type="number"
-                step="any"
+                type="text"
+                inputMode="decimal"
+                autoComplete="off"
                 aria-describedby={describedBy}
                 invalid={invalid}
                 className="text-right font-mono"

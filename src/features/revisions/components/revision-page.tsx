@@ -8,7 +8,6 @@ import { PageLoading, PageNotFound } from "@/components/ui/page-states";
 import { EmptyState, ErrorState } from "@/components/ui/states";
 import { AnalysisSection } from "@/features/analysis/components/analysis-section";
 import { ReviewSection } from "@/features/reviews/components/review-section";
-import { SubmitForReview } from "@/features/reviews/components/submit-for-review";
 import { ApiError } from "@/lib/api-client";
 import { formatCount, formatDateTime, formatEng } from "@/lib/format";
 import { useRevision } from "../api/get-revision";
@@ -18,6 +17,7 @@ import { CoefficientGrid } from "./coefficient-grid";
 import { DatapathSection } from "./datapath-section";
 import { FixedPointSection } from "./fixed-point-section";
 import { LimitsSection } from "./limits-section";
+import { DecisionHistory, LastDecision, NextAction } from "./next-step";
 import { TablePlots } from "./table-plots";
 
 /** A hash as its first 12 hex digits plus a button that copies all of it. */
@@ -148,8 +148,9 @@ function Revision({ detail }: { detail: RevisionDetail }) {
             <>Draft: content can change until it is submitted for review</>
           )
         }
-        action={detail.canEdit ? <SubmitForReview detail={detail} blocked={blocked} /> : undefined}
+        action={<NextAction detail={detail} blocked={blocked} />}
       />
+      <LastDecision revisionId={revision.id} />
       <Section title={`Coefficient tables (${tables.length})`}>
         {tables.length === 0 ? (
           <EmptyState title="No tables">This revision has no coefficient tables yet.</EmptyState>
@@ -159,6 +160,7 @@ function Revision({ detail }: { detail: RevisionDetail }) {
       </Section>
       <Section title="Fixed-point spec">
         <FixedPointSection
+          key={JSON.stringify(content.fixedPoint)}
           revisionId={revision.id}
           content={content}
           editable={detail.canEdit}
@@ -170,6 +172,7 @@ function Revision({ detail }: { detail: RevisionDetail }) {
       </Section>
       <Section title="Acceptance limits">
         <LimitsSection
+          key={JSON.stringify(content.limits)}
           revisionId={revision.id}
           content={content}
           editable={detail.canEdit}
@@ -177,7 +180,9 @@ function Revision({ detail }: { detail: RevisionDetail }) {
         />
       </Section>
       <AnalysisSection revisionId={revision.id} />
-      <ReviewSection revisionId={revision.id} />
+      <div id="review">
+        <ReviewSection revisionId={revision.id} />
+      </div>
       <Section title="History">
         <ol className="flex flex-col gap-1 rounded border border-paper-300 bg-paper-50 px-4 py-3 text-sm text-ink-800">
           <li>
@@ -190,6 +195,7 @@ function Revision({ detail }: { detail: RevisionDetail }) {
               review; content hash fixed
             </li>
           )}
+          <DecisionHistory revisionId={revision.id} />
         </ol>
       </Section>
     </>

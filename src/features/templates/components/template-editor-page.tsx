@@ -363,11 +363,9 @@ function EditorForm({ initial, canEdit }: { initial: TemplateDetail | null; canE
           <div className="grid grid-cols-1 gap-4 xl:grid-cols-2">
             <section aria-label="Source" className="flex min-w-0 flex-col gap-2">
               <h2 className="text-sm font-semibold text-ink-800">
-                Source{" "}
-                <span className="font-normal text-ink-600">
-                  (Liquid; see docs/export-templates.md for the fields and filters)
-                </span>
+                Source <span className="font-normal text-ink-600">(Liquid)</span>
               </h2>
+              <TemplateReference />
               <SourceEditor value={draft.body} onChange={set("body")} readOnly={readOnly} problem={problem} />
               {errors.body && !problem && <p className="text-xs text-fail-700">{errors.body}</p>}
             </section>
@@ -376,6 +374,59 @@ function EditorForm({ initial, canEdit }: { initial: TemplateDetail | null; canE
         </form>
       )}
     </>
+  );
+}
+
+// What a template can read and the filters it can apply (shared/exports/context.ts, server/exports/engine.ts),
+// here because a web user cannot open the repository's docs.
+const REFERENCE_FIELDS: ReadonlyArray<readonly [string, string]> = [
+  ["project.name, project.slug", "the project"],
+  ["design.name, design.kind", "the design (waveform or filter)"],
+  ["version, revision, content_hash", "the release and what it was made from"],
+  ["table.role, table.length, table.complex", "tx, rx or fir; tap count; complex or real"],
+  ["table.sample_rate_hz, table.ident", "rate in Hz; a safe C identifier for the table"],
+  ["spec.word_length, spec.fraction_length, spec.signed", "the word: W, F, two's complement or not"],
+  ["spec.rounding, spec.overflow, spec.scaling, spec.gain", "how the table was quantized"],
+  ["spec.min_code, spec.max_code, spec.c_type", "the integer range and a C type that holds it"],
+  [
+    "taps[]: index, i, q, i_hex, q_hex, i_exact, i_float",
+    "each tap: codes, hex words, exact and float values",
+  ],
+];
+const REFERENCE_FILTERS: ReadonlyArray<readonly [string, string]> = [
+  ["hex, bin, twos", "a code as a W-bit hex, binary or two's-complement word"],
+  ["exact", "a code as its exact decimal value"],
+  ["pad: width, fill", "pad on the left (negative width: on the right)"],
+  ["c_ident, vhdl_ident", "any text as a safe identifier"],
+  ["c_literal", "a code as a C literal (INT32_MIN spelled safely)"],
+  ["ascii", "text for a comment: ASCII only (µ becomes u)"],
+];
+
+function TemplateReference() {
+  return (
+    <details className="rounded border border-paper-300 bg-paper-50 px-3 py-1.5 text-xs text-ink-800">
+      <summary className="cursor-pointer font-medium text-signal-800">Fields and filters</summary>
+      <div className="mt-2 grid gap-3 md:grid-cols-2">
+        {(
+          [
+            ["Fields", REFERENCE_FIELDS],
+            ["Filters", REFERENCE_FILTERS],
+          ] as const
+        ).map(([title, rows]) => (
+          <div key={title}>
+            <h3 className="mb-1 font-semibold text-ink-800">{title}</h3>
+            <dl className="grid grid-cols-[max-content_1fr] gap-x-3 gap-y-1">
+              {rows.map(([k, v]) => (
+                <div key={k} className="contents">
+                  <dt className="font-mono text-[12px] text-ink-900">{k}</dt>
+                  <dd className="text-ink-700">{v}</dd>
+                </div>
+              ))}
+            </dl>
+          </div>
+        ))}
+      </div>
+    </details>
   );
 }
 

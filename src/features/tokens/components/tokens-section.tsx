@@ -220,7 +220,7 @@ function TokenTable({ tokens, onRevoke }: { tokens: ApiToken[]; onRevoke: (t: Ap
               {!t.revokedAt && (
                 <Button
                   size="sm"
-                  variant="danger"
+                  variant="danger-quiet"
                   aria-label={`Revoke ${t.name}`}
                   onClick={() => onRevoke(t)}
                 >
