@@ -12,6 +12,7 @@ import { Worker } from "node:worker_threads";
 import { CoefficientParseError } from "../../shared/coefficients/parse";
 import { BundleBuildError } from "../bundles/build";
 import { TemplateError } from "../exports/engine";
+import { MaterializeError } from "../services/materialize";
 import type { CpuTasks } from "./cpu-tasks";
 
 type TaskName = keyof CpuTasks;
@@ -53,6 +54,8 @@ function revive(e: WireError): Error {
       (f.column as number | null) ?? null,
     );
   if (e.name === "BundleBuildError") return new BundleBuildError(e.message);
+  if (e.name === "MaterializeError")
+    return new MaterializeError(e.message, Array.isArray(f.path) ? (f.path as (string | number)[]) : []);
   const err = e.name === "RangeError" ? new RangeError(e.message) : new Error(e.message);
   Object.assign(err, f);
   return err;

@@ -7,24 +7,29 @@ import bcrypt from "bcryptjs";
 import { parseCoefficients, type ParsedCoefficients } from "../../shared/coefficients/parse";
 import type { SampleKind } from "../../shared/exports/sample-kinds";
 import type { BuildReleaseInput, BuiltBundle } from "../bundles/build";
+import type { RevisionContent } from "../../shared/schemas/designs";
 import type { Database } from "../db/client";
+import type { MaterializedTable, ParsedUpload } from "../services/materialize";
 import type { PreviewResult } from "../../shared/exports/schemas";
 
-const databases = new Map<string, Database>();
-
-/** This thread's own small pool for a database URL (bundle builds read the revision through it). */
-async function databaseFor(url: string): Promise<Database> {
-  let d = databases.get(url);
-  if (!d) {
-    const { openDatabase } = await import("../db/client");
-    d = openDatabase(url, 2);
-    databases.set(url, d);
+/** A one-build connection (closed after the build, so nothing holds the database between builds). */
+async function withDatabase<T>(url: string, fn: (db: Database["db"]) => Promise<T>): Promise<T> {
+  const { openDatabase } = await import("../db/client");
+  const d = openDatabase(url, 1);
+  try {
+    return await fn(d.db);
+  } finally {
+    await d.pool.end();
   }
-  return d;
 }
 
 /** Every task a CPU thread runs, by name. */
 export const cpuTasks = {
+  async materialize(a: { content: RevisionContent; uploads: ParsedUpload[] }): Promise<MaterializedTable[]> {
+    const { materialize } = await import("../services/materialize");
+    const byId = new Map(a.uploads.map((u) => [u.id, u]));
+    return materialize(a.content, (id) => byId.get(id));
+  },
   parseCoefficients(a: { bytes: Uint8Array; fileName: string }): ParsedCoefficients {
     return parseCoefficients(a.bytes, { fileName: a.fileName });
   },
@@ -39,9 +44,12 @@ export const cpuTasks = {
     return renderPreview(a.body, a.sample);
   },
   async buildBundle(a: { databaseUrl: string; input: BuildReleaseInput }): Promise<BuiltBundle> {
-    const { buildReleaseBundle } = await import("../bundles/build");
-    const { db } = await databaseFor(a.databaseUrl);
-    return buildReleaseBundle(db, a.input);
+    const { buildReleaseBundle, BundleBuildError } = await import("../bundles/build");
+    const { oversizedFiles } = await import("../bundles/limits");
+    const built = await withDatabase(a.databaseUrl, (db) => buildReleaseBundle(db, a.input));
+    const tooBig = oversizedFiles(built.manifest.files);
+    if (tooBig) throw new BundleBuildError(tooBig);
+    return built;
   },
 };
 

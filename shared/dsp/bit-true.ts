@@ -7,10 +7,12 @@
  * product and every partial sum of either accumulator is an integer of magnitude ≤ M·S (triangle
  * inequality). Float64 holds every integer of magnitude ≤ 2^53 exactly, so if M·S ≤ 2^53 each `*` and
  * `+` below is exact and the float path equals integer arithmetic; otherwise the BigInt path runs.
- * No FFT: its round-off would make the result approximate.
+ * No floating-point FFT: its round-off would make the result approximate. Long filters use the exact
+ * number-theoretic convolution instead (DIRECT_MAX_MACS), whose accumulators are the same integers.
  */
 import { absoluteCodeSum, accumulatorGrowth, checkSignedCodes } from "./accumulator";
 import { checkInteger, checkSignal, MAX_SAMPLES } from "./check";
+import { exactComplexConvolution } from "./exact-convolution";
 import {
   checkOverflowMode,
   checkRoundingMode,
@@ -51,8 +53,15 @@ export interface BitTrueResult {
   overflowCount: number;
   /** Worst-case accumulator width for the declared input and coefficient widths (accumulatorGrowth). */
   accumulatorBits: number;
-  exactPath: "float64" | "bigint";
+  /** How the exact accumulators were computed: direct float64, direct BigInt, or NTT (exact-convolution.ts). */
+  exactPath: "float64" | "bigint" | "ntt";
 }
+
+/**
+ * Above this many multiply-accumulates (Nx × Nh) the accumulators come from the exact number-theoretic
+ * convolution (shared/dsp/exact-convolution.ts): the same integers, in O(L log L) instead of Nx × Nh.
+ */
+export const DIRECT_MAX_MACS = 2 ** 27;
 
 /** Largest integer magnitude the float path may meet (every integer up to it is exact in float64). */
 export const FLOAT_EXACT_LIMIT = 2 ** 53;
@@ -186,7 +195,12 @@ export function bitTrueFilter(opts: BitTrueOptions): BitTrueResult {
   const im = new Float64Array(ny);
   let overflowCount = 0;
   const bound = BigInt(largestMagnitude(input)) * absoluteCodeSum(coefficients);
-  const exactPath = bound <= BigInt(FLOAT_EXACT_LIMIT) ? "float64" : "bigint";
+  const exactPath =
+    input.re.length * coefficients.re.length > DIRECT_MAX_MACS
+      ? "ntt"
+      : bound <= BigInt(FLOAT_EXACT_LIMIT)
+        ? "float64"
+        : "bigint";
 
   if (exactPath === "float64") {
     convolveFloat(input, coefficients, re, im);
@@ -203,7 +217,10 @@ export function bitTrueFilter(opts: BitTrueOptions): BitTrueResult {
       }
     }
   } else {
-    const acc = convolveBigInt(input, coefficients, ny);
+    const acc =
+      exactPath === "ntt"
+        ? exactComplexConvolution(input, coefficients)
+        : convolveBigInt(input, coefficients, ny);
     const bMin = BigInt(min);
     const bMax = BigInt(max);
     for (const [src, dst] of [
