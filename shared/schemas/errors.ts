@@ -22,5 +22,7 @@ export const ERROR_CODES = [
   "internal",
   /** A stored release bundle no longer matches its SHA-256: refused, never served. */
   "bundle_corrupt",
+  /** The database cannot be reached (503): nothing was changed; try again shortly. */
+  "service_unavailable",
 ] as const;
 export type ErrorCode = (typeof ERROR_CODES)[number];
