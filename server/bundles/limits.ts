@@ -1,22 +1,22 @@
 /**
  * What a release can carry. Every exported file is at most MAX_EXPORT_FILE_BYTES; the widest built-in
- * export writes at most WORST_BYTES_PER_TAP per tap (JSON with 32-bit codes, long exact decimals and
- * floats, measured by tests/unit/bundles/limits.test.ts), so a table longer than MAX_RELEASE_TABLE_LENGTH
+ * export writes at most WORST_BYTES_PER_TAP per tap (JSON with 32-bit codes and F = 96: 309 B, the longest
+ * exact decimals and floats; measured by tests/unit/bundles/limits.test.ts), so a table longer than MAX_RELEASE_TABLE_LENGTH
  * could never be released and is refused when the draft is saved, not after a long build.
  */
 
-/** Largest exported file in a bundle (64 MiB): what a firmware repository or a review tool can still open. */
-export const MAX_EXPORT_FILE_BYTES = 64 * 1024 * 1024;
+/** Largest exported file in a bundle (96 MiB): what a firmware repository or a review tool can still open. */
+export const MAX_EXPORT_FILE_BYTES = 96 * 1024 * 1024;
 
 /** Bytes per tap the widest built-in export may write (worst case; the fixed header is extra). */
-export const WORST_BYTES_PER_TAP = 200;
+export const WORST_BYTES_PER_TAP = 320;
 
 /** Fixed part (header, footer) a built-in export may add to its per-tap lines. */
 export const WORST_HEADER_BYTES = 64 * 1024;
 
 /**
  * Longest table a release can carry (2^18 samples): the largest power of two whose widest export fits
- * MAX_EXPORT_FILE_BYTES (262,144 × 200 B + 64 KiB ≈ 50 MiB).
+ * MAX_EXPORT_FILE_BYTES (262,144 × 320 B + 64 KiB ≈ 80 MiB).
  */
 export const MAX_RELEASE_TABLE_LENGTH = 262_144;
 
@@ -31,6 +31,6 @@ export function unreleasableTable(tables: readonly { role: string; length: numbe
 export function oversizedFiles(files: readonly { path: string; size: number }[]): string | null {
   const big = files.find((f) => f.size > MAX_EXPORT_FILE_BYTES);
   return big
-    ? `${big.path} would be ${big.size.toLocaleString("en")} bytes; an exported file may have at most ${MAX_EXPORT_FILE_BYTES.toLocaleString("en")} (64 MiB)`
+    ? `${big.path} would be ${big.size.toLocaleString("en")} bytes; an exported file may have at most ${MAX_EXPORT_FILE_BYTES.toLocaleString("en")} (96 MiB)`
     : null;
 }

@@ -27,8 +27,8 @@ export const TEMPLATE_LIMITS = {
   previewMs: 500,
   /** Characters liquidjs may allocate while rendering (memoryLimit; a rough count). */
   memoryChars: 64 * 1024 * 1024,
-  /** Characters of rendered output (an exported file is at most 64 MiB, server/bundles/limits.ts). */
-  maxOutputChars: 64 * 1024 * 1024,
+  /** Characters of rendered output (an exported file is at most 96 MiB, server/bundles/limits.ts). */
+  maxOutputChars: 96 * 1024 * 1024,
   /**
    * Loop iterations (for and tablerow bodies) in one render: the work bound. One pass over the largest
    * releasable table (262,144 taps) per loop leaves room for 16 such passes; a loop nested in a loop over

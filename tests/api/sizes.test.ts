@@ -119,7 +119,7 @@ describe("releases of long pulses", () => {
     const details = err.details as { path: string[]; message: string }[];
     expect(details[0]!.path).toEqual(["content", "tx"]);
     expect(details[0]!.message).toMatch(
-      /The tx table would have 4,194,304 samples; a release can carry tables of at most 262,144 samples \(each exported file is limited to 64 MiB\)/,
+      /The tx table would have 4,194,304 samples; a release can carry tables of at most 262,144 samples \(each exported file is limited to 96 MiB\)/,
     );
   }, 300_000);
 });
