@@ -122,6 +122,8 @@ export class CpuLane {
       if (!slot) return;
       const job = this.waiting.shift()!;
       slot.job = job;
+      // A busy thread keeps the process alive (a script awaiting a hash must not exit); an idle one does not.
+      slot.worker.ref();
       slot.worker.postMessage({ id: job.id, task: job.task, arg: job.arg }, job.transfer);
     }
   }
@@ -138,6 +140,7 @@ export class CpuLane {
         const job = slot.job;
         if (!job || job.id !== m.id) return;
         slot.job = null;
+        slot.worker.unref();
         if (m.ok) job.resolve(m.value);
         else job.reject(revive(m.error));
         this.dispatch();

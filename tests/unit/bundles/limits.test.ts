@@ -30,7 +30,7 @@ function worstContext(n: number, fractionLength: number) {
       wordLength: 32,
       fractionLength,
       signed: true,
-      scaling: "peak",
+      scaling: "full-scale",
       rounding: "nearest-even",
       overflow: "saturate",
     },
