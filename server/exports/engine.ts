@@ -202,13 +202,17 @@ export function parseTemplate(body: string): Template[] {
 export async function renderTemplate(
   template: string | Template[],
   context: object,
-  opts: { renderMs?: number } = {},
+  opts: { renderMs?: number; sync?: boolean } = {},
 ): Promise<string> {
   const parsed = typeof template === "string" ? parseTemplate(template) : template;
   let out: unknown;
   try {
     // Rendering runs on the calling thread: the time limit bounds how long one template can hold it.
-    out = await engine().render(parsed, context, { renderLimit: opts.renderMs ?? TEMPLATE_LIMITS.renderMs });
+    const renderOpts = { renderLimit: opts.renderMs ?? TEMPLATE_LIMITS.renderMs };
+    // Synchronous rendering (same output) skips a promise per tag: about twice as fast on long tables.
+    out = opts.sync
+      ? engine().renderSync(parsed, context, renderOpts)
+      : await engine().render(parsed, context, renderOpts);
   } catch (err) {
     throw toTemplateError(err);
   }

@@ -50,7 +50,7 @@ export async function renderExport(
     if (template.body === null) throw new Error(`template ${template.id} has no body`);
     // No wall-time limit for a real table (it renders in a CPU thread): output size and loop work bound it.
     bytes = new TextEncoder().encode(
-      await renderTemplate(template.body, ctx, { renderMs: Number.POSITIVE_INFINITY }),
+      await renderTemplate(template.body, ctx, { renderMs: Number.POSITIVE_INFINITY, sync: true }),
     );
   }
   return {
