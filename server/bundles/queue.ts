@@ -3,12 +3,21 @@
  * connection), never the request thread. Each user may have one build waiting or running at a time, and
  * the lane holds at most MAX_QUEUED_BUNDLE_BUILDS; beyond that the answer is 429 with a clear message.
  */
+import { eq, max } from "drizzle-orm";
 import type pg from "pg";
 import type { Db } from "../db/client";
+import { coefficientTables } from "../db/schema";
 import { HttpError } from "../http/errors";
 import { cpuPool } from "../jobs/cpu-pool";
 import { poolOf } from "../jobs/queue";
-import { BundleBuildError, type BuildReleaseInput, type BuiltBundle } from "./build";
+import { buildReleaseBundle, BundleBuildError, type BuildReleaseInput, type BuiltBundle } from "./build";
+import { oversizedFiles } from "./limits";
+
+/**
+ * Bundles whose tables are all at most this long build on the calling thread (tens of milliseconds: a
+ * thread's start-up would cost more than the build); longer ones go to the bundle lane.
+ */
+export const INLINE_BUNDLE_MAX_SAMPLES = 4096;
 
 /** Bundle builds waiting or running in this process, at most. */
 export const MAX_QUEUED_BUNDLE_BUILDS = 4;
@@ -43,6 +52,16 @@ export async function buildBundleOffThread(
     );
   building.set(userId, (building.get(userId) ?? 0) + 1);
   try {
+    const [longest] = await db
+      .select({ n: max(coefficientTables.length) })
+      .from(coefficientTables)
+      .where(eq(coefficientTables.revisionId, input.revisionId));
+    if ((longest?.n ?? 0) <= INLINE_BUNDLE_MAX_SAMPLES) {
+      const built = await buildReleaseBundle(db, input);
+      const tooBig = oversizedFiles(built.manifest.files);
+      if (tooBig) throw new BundleBuildError(tooBig);
+      return built;
+    }
     const built = await lane.run("buildBundle", { databaseUrl: databaseUrl(db), input });
     const zip = Buffer.from(built.zip.buffer, built.zip.byteOffset, built.zip.byteLength);
     return { ...built, zip };

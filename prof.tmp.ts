@@ -1,0 +1,26 @@
+import { generateWaveform } from "./shared/dsp/analysis";
+import { matchedFilter } from "./shared/dsp/matched-filter";
+import { quantize } from "./shared/dsp/quantize";
+import { buildExportContext, quantizedTableFields } from "./shared/exports/context";
+import { builtinTemplates } from "./server/exports/builtins";
+import { renderExport } from "./server/exports/render";
+import { buildGolden } from "./server/bundles/golden";
+import { zipFiles } from "./server/bundles/zip";
+const n = Number(process.argv[2] ?? 65536);
+let t = performance.now();
+const lap = (what: string) => { const now = performance.now(); console.log(what, (now - t).toFixed(0), "ms"); t = now; };
+const tx = generateWaveform({ kind: "lfm", bandwidthHz: 10e6, pulseWidthS: n / 12.5e6, sampleRateHz: 12.5e6 } as never);
+const rx = matchedFilter(tx, { kind: "taylor", nbar: 5, sidelobeDb: -35 } as never);
+lap("generate");
+const spec = { wordLength: 12, fractionLength: 11, signed: true, scaling: "full-scale", rounding: "nearest-even", overflow: "saturate" } as never;
+const q = quantize(rx, spec);
+lap("quantize");
+const ctx = buildExportContext({ project: { name: "P", slug: "p" }, design: { name: "D", kind: "waveform" }, version: "1.0.0", revision: 1, contentHash: "a".repeat(64), role: "rx", sampleRateHz: 12.5e6, complex: true, ...quantizedTableFields(rx, q) });
+lap("context");
+const files = [];
+for (const tp of builtinTemplates()) { const r = await renderExport(tp, ctx); files.push({ path: `t/${r.fileName}`, bytes: r.bytes }); lap(`render ${tp.id} ${r.bytes.byteLength}`); }
+const g = buildGolden({ kind: "waveform", waveform: tx, filterRole: "rx", codes: { re: q.re, im: q.im }, wordLength: 12, signed: true, rounding: "nearest-even", overflow: "saturate", inputBits: 14, contentHash: "a".repeat(64) });
+lap("golden");
+files.push(...g.files);
+const z = await zipFiles(files, new Date());
+lap(`zip ${z.byteLength}`);
