@@ -16,7 +16,7 @@ import { renderExport } from "../../../server/exports/render";
 function worstContext(n: number, fractionLength: number) {
   const re = Float64Array.from({ length: n }, (_, k) => (k % 2 ? -(2 ** 31) : 2 ** 31 - 1));
   const im = Float64Array.from({ length: n }, () => -(2 ** 31));
-  const ref = Float64Array.from({ length: n }, (_, k) => -1.2345678901234567e-300 * (k + 1));
+  const ref = Float64Array.from({ length: n }, (_, k) => -1.234567890123456e-300 * (k + 1));
   return buildExportContext({
     project: { name: "P".repeat(120), slug: "p".repeat(60) },
     design: { name: "D".repeat(120), kind: "waveform" },
