@@ -16,6 +16,18 @@ import { analyze } from "../shared/dsp/analysis";
 import { bitTrueFilter } from "../shared/dsp/bit-true";
 import { createRng } from "../shared/dsp/random";
 
+// `npm run bench -- --sizes`: only the release-size benchmark (scripts/bench-sizes.ts, its own section).
+if (process.argv.includes("--sizes")) {
+  execFileSync(
+    process.execPath,
+    ["--import", "tsx", fileURLToPath(new URL("./bench-sizes.ts", import.meta.url))],
+    {
+      stdio: "inherit",
+    },
+  );
+  process.exit(0);
+}
+
 const RUNS = 5;
 let peakRss = 0;
 const sample = () => (peakRss = Math.max(peakRss, process.memoryUsage().rss));

@@ -5,7 +5,10 @@
 import { createHash } from "node:crypto";
 import { renderBinary } from "../../shared/exports/binary";
 import type { ExportContext } from "../../shared/exports/context";
-import { renderTemplate } from "./engine";
+import { sampleExportContext } from "../../shared/exports/sample";
+import type { SampleKind } from "../../shared/exports/sample-kinds";
+import { PREVIEW_TEXT_MAX, type PreviewResult } from "../../shared/exports/schemas";
+import { renderTemplate, TEMPLATE_LIMITS, TemplateError } from "./engine";
 
 /** What renderExport needs of a template (a built-in or a stored custom one). */
 export interface RenderableTemplate {
@@ -45,7 +48,10 @@ export async function renderExport(
   if (template.kind === "binary") bytes = renderBinary(ctx);
   else {
     if (template.body === null) throw new Error(`template ${template.id} has no body`);
-    bytes = new TextEncoder().encode(await renderTemplate(template.body, ctx));
+    // No wall-time limit for a real table (it renders in a CPU thread): output size and loop work bound it.
+    bytes = new TextEncoder().encode(
+      await renderTemplate(template.body, ctx, { renderMs: Number.POSITIVE_INFINITY, sync: true }),
+    );
   }
   return {
     fileName: exportFileName(ctx, template),
@@ -53,4 +59,21 @@ export async function renderExport(
     sha256: createHash("sha256").update(bytes).digest("hex"),
     template: { id: template.id, name: template.name, version: template.version },
   };
+}
+
+/** Renders a body on a sample table; the answer carries the text or the problem with line and column. */
+export async function renderPreview(body: string, sample: SampleKind): Promise<PreviewResult> {
+  try {
+    const text = await renderTemplate(body, sampleExportContext(sample), {
+      renderMs: TEMPLATE_LIMITS.previewMs,
+    });
+    const bytes = Buffer.byteLength(text, "utf8");
+    return text.length > PREVIEW_TEXT_MAX
+      ? { ok: true, text: text.slice(0, PREVIEW_TEXT_MAX), truncated: true, bytes }
+      : { ok: true, text, truncated: false, bytes };
+  } catch (err) {
+    if (err instanceof TemplateError)
+      return { ok: false, error: { message: err.message, line: err.line, column: err.column } };
+    throw err;
+  }
 }

@@ -14,7 +14,24 @@ const STATUS: Record<ErrorCode, number> = {
   bundle_corrupt: 500,
   cross_site: 403,
   password_change_required: 403,
+  service_unavailable: 503,
 };
+
+// Node socket errors and PostgreSQL SQLSTATEs that mean "the database is not there", not "the query is wrong":
+// class 08 (connection exception), 57P01..57P03 (shutdown, crash, cannot connect now), 53300 (too many connections).
+const DB_DOWN_CODES = new Set(["ECONNREFUSED", "ECONNRESET", "ETIMEDOUT", "EPIPE", "ENOTFOUND", "EAI_AGAIN"]);
+const DB_DOWN_SQLSTATE = /^(08...|57P0[123]|53300)$/;
+const DB_DOWN_MESSAGE = /Connection terminated|connection timeout|Client has encountered a connection error/i;
+
+/** Is this error (or its cause chain) the database being unreachable? */
+export function isDatabaseUnavailable(err: unknown, depth = 0): boolean {
+  if (!err || typeof err !== "object" || depth > 4) return false;
+  const e = err as { code?: unknown; message?: unknown; cause?: unknown; errors?: unknown };
+  if (typeof e.code === "string" && (DB_DOWN_CODES.has(e.code) || DB_DOWN_SQLSTATE.test(e.code))) return true;
+  if (typeof e.message === "string" && DB_DOWN_MESSAGE.test(e.message)) return true;
+  if (Array.isArray(e.errors) && e.errors.some((x) => isDatabaseUnavailable(x, depth + 1))) return true;
+  return isDatabaseUnavailable(e.cause, depth + 1);
+}
 
 /** The one error type the server throws on purpose; the error middleware turns it into JSON. */
 export class HttpError extends Error {
@@ -82,6 +99,19 @@ export const errorHandler: ErrorRequestHandler = (err: unknown, req, res, _next)
   }
   if (parserError?.type === "entity.too.large") {
     res.status(413).json(errorBody("bad_request", "The request body is too large"));
+    return;
+  }
+  if (isDatabaseUnavailable(err)) {
+    req.log?.warn({ err }, "database unavailable");
+    res.setHeader("Retry-After", "10");
+    res
+      .status(503)
+      .json(
+        errorBody(
+          "service_unavailable",
+          "The database is not reachable at the moment, so nothing was read or changed. Try again in a few seconds; if it lasts, tell an administrator.",
+        ),
+      );
     return;
   }
   req.log?.error({ err }, "unhandled error");

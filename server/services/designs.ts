@@ -18,8 +18,9 @@ import {
   users,
 } from "../db/schema";
 import { HttpError, validationFailed } from "../http/errors";
+import { unreleasableTable } from "../bundles/limits";
 import { recordContentAuthors } from "./authorship";
-import { MaterializeError, materialize, uploadIdsOf, type MaterializedTable } from "./materialize";
+import { MaterializeError, materializeOffThread, uploadIdsOf, type MaterializedTable } from "./materialize";
 import type { Viewer } from "./projects";
 import { recordAudit } from "./audit";
 import { parsedUploads } from "./uploads";
@@ -177,12 +178,20 @@ export async function tablesFor(
   content: RevisionContent,
 ): Promise<MaterializedTable[]> {
   const uploaded = await parsedUploads(db, projectId, uploadIdsOf(content));
+  let tables: MaterializedTable[];
   try {
-    return materialize(content, (id) => uploaded.get(id));
+    tables = await materializeOffThread(content, [...uploaded.values()]);
   } catch (e) {
     if (e instanceof MaterializeError) throw validationFailed([{ path: e.path, message: e.message }]);
     throw e;
   }
+  // What could never be released is refused now, not after analysis and review (server/bundles/limits.ts).
+  const unreleasable = unreleasableTable(tables);
+  if (unreleasable)
+    throw validationFailed([
+      { path: ["content", content.kind === "waveform" ? "tx" : "fir"], message: unreleasable },
+    ]);
+  return tables;
 }
 
 /** Insert a revision's materialized tables. */

@@ -165,3 +165,17 @@ export function uploadIdsOf(content: RevisionContent): number[] {
   if (content.kind === "waveform") return content.tx.kind === "upload" ? [content.tx.uploadId] : [];
   return content.fir.kind === "upload" ? [content.fir.uploadId] : [];
 }
+
+/** materialize in a CPU thread (server/jobs/cpu-pool.ts): generators and matched filters of long pulses take seconds. */
+export async function materializeOffThread(
+  content: RevisionContent,
+  uploads: ParsedUpload[],
+): Promise<MaterializedTable[]> {
+  const { cpuPool } = await import("../jobs/cpu-pool");
+  const tables = await cpuPool().run("materialize", { content, uploads });
+  // Buffers cross the thread boundary as plain Uint8Arrays.
+  return tables.map((t) => ({
+    ...t,
+    values: Buffer.from(t.values.buffer, t.values.byteOffset, t.values.byteLength),
+  }));
+}

@@ -13,7 +13,7 @@ import {
   type ReleaseFile,
   type ReleaseListQuery,
 } from "../../shared/schemas/releases";
-import { buildReleaseBundle } from "../bundles/build";
+import { buildBundleOffThread } from "../bundles/queue";
 import type { Db } from "../db/client";
 import { designs, projectMembers, projects, releases, reviews, revisions, users } from "../db/schema";
 import { HttpError } from "../http/errors";
@@ -280,7 +280,67 @@ const isUniqueViolation = (e: unknown): boolean =>
   e !== null &&
   ((e as { code?: string }).code === "23505" || isUniqueViolation((e as { cause?: unknown }).cause));
 
-/** POST /api/revisions/:id/release: the approved content, its bundle and the release row, in one transaction. */
+/** The release checks (lifecycle table, approval names content and report, version unused), in a transaction. */
+async function releaseChecks(
+  tx: Tx,
+  viewer: Viewer,
+  revisionId: number,
+  parts: ReturnType<typeof parseVersion>,
+  version: string,
+) {
+  const r = await revisionFacts(tx, viewer, revisionId, true);
+  const next = authorize("release", r, viewer);
+  // Serialize releases per design so the version check below cannot race.
+  await tx.select({ id: designs.id }).from(designs).where(eq(designs.id, r.designId)).for("update");
+  const [approval] = await tx
+    .select({ contentHash: reviews.contentHash, reportHash: reviews.reportHash })
+    .from(reviews)
+    .where(and(eq(reviews.revisionId, r.id), eq(reviews.decision, "approved")))
+    .orderBy(desc(reviews.at), desc(reviews.id))
+    .limit(1);
+  const report = r.contentHash ? await reportSummary(tx, r.project.id, r.contentHash) : null;
+  if (
+    !approval ||
+    approval.contentHash !== r.contentHash ||
+    !report ||
+    report.reportHash !== approval.reportHash
+  )
+    throw new HttpError(
+      "conflict",
+      `r${r.number}'s content or report is not what was approved: submit it for review again`,
+      { reason: "not_what_was_approved" },
+    );
+  const [used] = await tx
+    .select({ id: releases.id })
+    .from(releases)
+    .where(
+      and(
+        eq(releases.designId, r.designId),
+        eq(releases.major, parts.major),
+        eq(releases.minor, parts.minor),
+        eq(releases.patch, parts.patch),
+      ),
+    );
+  if (used) throw versionTaken(version);
+  const approvals = await tx
+    .select({ id: reviews.id })
+    .from(reviews)
+    .where(
+      and(
+        eq(reviews.revisionId, r.id),
+        eq(reviews.decision, "approved"),
+        eq(reviews.contentHash, r.contentHash ?? ""),
+      ),
+    );
+  return { r, next, approvalCount: approvals.length };
+}
+
+/**
+ * POST /api/revisions/:id/release. The checks run first (fast 403/409), then the bundle is built in the
+ * bundle lane of the CPU pool (a worker thread with its own connection; the request thread only waits),
+ * then one transaction checks again and writes the release row with the bundle and its SHA-256, the state
+ * change, the audit event and the mail. A failed build releases nothing.
+ */
 export async function createRelease(
   db: Db,
   viewer: Viewer,
@@ -289,51 +349,25 @@ export async function createRelease(
 ): Promise<Release> {
   await revisionFacts(db, viewer, revisionId);
   const parts = parseVersion(input.version);
+  await db.transaction((tx) => releaseChecks(tx, viewer, revisionId, parts, input.version));
+  const releasedAt = new Date();
+  const bundle = await buildBundleOffThread(db, viewer.id, {
+    revisionId,
+    version: input.version,
+    notes: input.notes,
+    releasedBy: viewer.id,
+    releasedAt,
+  });
   let id: number;
   try {
     id = await db.transaction(async (tx) => {
-      const r = await revisionFacts(tx, viewer, revisionId, true);
-      const next = authorize("release", r, viewer);
-      // Serialize releases per design so the version check below cannot race.
-      await tx.select({ id: designs.id }).from(designs).where(eq(designs.id, r.designId)).for("update");
-      const [approval] = await tx
-        .select({ contentHash: reviews.contentHash, reportHash: reviews.reportHash })
-        .from(reviews)
-        .where(and(eq(reviews.revisionId, r.id), eq(reviews.decision, "approved")))
-        .orderBy(desc(reviews.at), desc(reviews.id))
-        .limit(1);
-      const report = r.contentHash ? await reportSummary(tx, r.project.id, r.contentHash) : null;
-      if (
-        !approval ||
-        approval.contentHash !== r.contentHash ||
-        !report ||
-        report.reportHash !== approval.reportHash
-      )
+      const { r, next, approvalCount } = await releaseChecks(tx, viewer, revisionId, parts, input.version);
+      if (approvalCount !== bundle.manifest.approvals.length)
         throw new HttpError(
           "conflict",
-          `r${r.number}'s content or report is not what was approved: submit it for review again`,
-          { reason: "not_what_was_approved" },
+          "The approvals of this revision changed while its bundle was built: release it again",
+          { reason: "changed_during_build" },
         );
-      const [used] = await tx
-        .select({ id: releases.id })
-        .from(releases)
-        .where(
-          and(
-            eq(releases.designId, r.designId),
-            eq(releases.major, parts.major),
-            eq(releases.minor, parts.minor),
-            eq(releases.patch, parts.patch),
-          ),
-        );
-      if (used) throw versionTaken(input.version);
-      const releasedAt = new Date();
-      const bundle = await buildReleaseBundle(tx, {
-        revisionId: r.id,
-        version: input.version,
-        notes: input.notes,
-        releasedBy: viewer.id,
-        releasedAt,
-      });
       const [row] = await tx
         .insert(releases)
         .values({

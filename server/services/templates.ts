@@ -5,10 +5,8 @@
  */
 import { asc, eq, sql } from "drizzle-orm";
 import type { z } from "zod";
-import { sampleExportContext } from "../../shared/exports/sample";
 import type { SampleKind } from "../../shared/exports/sample-kinds";
 import {
-  PREVIEW_TEXT_MAX,
   type CreateTemplateSchema,
   type PreviewResult,
   type TemplateDetail,
@@ -18,9 +16,9 @@ import {
 import type { Db } from "../db/client";
 import { exportTemplates, exportTemplateVersions, users } from "../db/schema";
 import { builtinTemplate, builtinTemplates, type BuiltinTemplate } from "../exports/builtins";
-import { renderTemplate, TEMPLATE_LIMITS, TemplateError } from "../exports/engine";
 import type { RenderableTemplate } from "../exports/render";
 import { HttpError } from "../http/errors";
+import { cpuPool } from "../jobs/cpu-pool";
 import { recordAudit } from "./audit";
 
 function builtinSummary(t: BuiltinTemplate): TemplateDetail {
@@ -102,21 +100,9 @@ export async function renderableTemplates(db: Db, ids: readonly string[]): Promi
   return out;
 }
 
-/** Renders a body on a sample table; the answer carries the text or the problem with line and column. */
-export async function previewTemplate(body: string, sample: SampleKind): Promise<PreviewResult> {
-  try {
-    const text = await renderTemplate(body, sampleExportContext(sample), {
-      renderMs: TEMPLATE_LIMITS.previewMs,
-    });
-    const bytes = Buffer.byteLength(text, "utf8");
-    return text.length > PREVIEW_TEXT_MAX
-      ? { ok: true, text: text.slice(0, PREVIEW_TEXT_MAX), truncated: true, bytes }
-      : { ok: true, text, truncated: false, bytes };
-  } catch (err) {
-    if (err instanceof TemplateError)
-      return { ok: false, error: { message: err.message, line: err.line, column: err.column } };
-    throw err;
-  }
+/** Renders a body on a sample table in a CPU thread (server/exports/render.ts renderPreview); text or the problem. */
+export function previewTemplate(body: string, sample: SampleKind): Promise<PreviewResult> {
+  return cpuPool().run("previewTemplate", { body, sample });
 }
 
 /** Parses and test-renders a body on both sample tables; a problem is a 400 naming `body` with line and column. */

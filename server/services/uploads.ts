@@ -1,10 +1,15 @@
 import { createHash } from "node:crypto";
 import { and, eq, inArray } from "drizzle-orm";
-import { CoefficientParseError, parseCoefficients } from "../../shared/coefficients/parse";
+import {
+  CoefficientParseError,
+  parseCoefficients,
+  type ParsedCoefficients,
+} from "../../shared/coefficients/parse";
 import type { Upload } from "../../shared/schemas/designs";
 import type { Db } from "../db/client";
 import { uploads } from "../db/schema";
 import { HttpError } from "../http/errors";
+import { cpuPool } from "../jobs/cpu-pool";
 import type { ParsedUpload } from "./materialize";
 import { projectAccess } from "./designs";
 import { recordAudit } from "./audit";
@@ -51,6 +56,17 @@ export function cleanFileName(name: string): string {
   return (printable || "upload").slice(0, 255);
 }
 
+// Files up to this size parse on the calling thread (well under a millisecond); larger ones in a CPU thread.
+const INLINE_PARSE_BYTES = 64 * 1024;
+
+/** Parse coefficient bytes, in a CPU thread unless the file is small. */
+export async function parseOffThread(bytes: Uint8Array, fileName: string): Promise<ParsedCoefficients> {
+  if (bytes.byteLength <= INLINE_PARSE_BYTES) return parseCoefficients(bytes, { fileName });
+  // A copy goes to the thread; the caller keeps its buffer (it is stored as uploaded).
+  const copy = new Uint8Array(bytes);
+  return cpuPool().run("parseCoefficients", { bytes: copy, fileName }, [copy.buffer]);
+}
+
 /** Parse and store an upload (parse first: a bad file leaves no row). */
 export async function createUpload(
   db: Db,
@@ -62,7 +78,7 @@ export async function createUpload(
   const fileName = cleanFileName(file.originalname);
   let parsed;
   try {
-    parsed = parseCoefficients(file.buffer, { fileName });
+    parsed = await parseOffThread(file.buffer, fileName);
   } catch (e) {
     if (e instanceof CoefficientParseError)
       throw new HttpError("validation_failed", `${fileName}: ${e.message}`, {
@@ -149,7 +165,7 @@ export async function parsedUploads(
     .from(uploads)
     .where(and(eq(uploads.projectId, projectId), inArray(uploads.id, ids)));
   for (const r of rows) {
-    const p = parseCoefficients(r.content, { fileName: r.fileName });
+    const p = await parseOffThread(r.content, r.fileName);
     out.set(r.id, {
       id: r.id,
       fileName: r.fileName,

@@ -37,10 +37,7 @@ export class CoefficientParseError extends Error {
   }
 }
 
-const NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
 const NON_FINITE = /^[+-]?(?:nan|inf|infinity)$/i;
-const COMPLEX =
-  /^\(?\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)?\s*(?:([+-])\s*((?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)?\s*\*?\s*([ij]))?\s*\)?$/;
 const I_NAMES = new Set(["i", "re", "real", "inphase", "in-phase", "value", "h", "coef", "coefficient"]);
 const Q_NAMES = new Set(["q", "im", "imag", "imaginary", "quadrature"]);
 const INDEX_NAMES = new Set(["n", "k", "index", "idx", "tap"]);
@@ -49,8 +46,103 @@ function describe(token: string): string {
   return token.length > 24 ? `"${token.slice(0, 24)}…"` : `"${token}"`;
 }
 
+/**
+ * Longest accepted value line (characters, after its comment is cut off). A line of a table holds one or
+ * two numbers; a longer one is not a coefficient file, and refusing it early bounds the work per line.
+ */
+export const MAX_LINE_CHARS = 1024;
+
+/**
+ * Counts the characters the line scanners below visit. The scanners are hand-written single passes (no
+ * regular expression runs on a value line), so a parse costs at most a small constant times the input
+ * length; tests/unit/coefficients/parse.test.ts checks that bound with this count.
+ */
+export interface ScanMeter {
+  steps: number;
+}
+
+// The meter of the parse under way (parsing is synchronous, so one slot is enough).
+let meter: ScanMeter | null = null;
+const tick = (n: number) => {
+  if (meter) meter.steps += n;
+};
+
+const isDigit = (c: number) => c >= 48 && c <= 57;
+// The characters JavaScript's \s matches (ECMA-262 WhiteSpace and LineTerminator).
+function isSpace(c: number): boolean {
+  return (
+    c === 32 ||
+    (c >= 9 && c <= 13) ||
+    c === 0xa0 ||
+    c === 0x1680 ||
+    (c >= 0x2000 && c <= 0x200a) ||
+    c === 0x2028 ||
+    c === 0x2029 ||
+    c === 0x202f ||
+    c === 0x205f ||
+    c === 0x3000 ||
+    c === 0xfeff
+  );
+}
+
+/**
+ * End of an unsigned decimal number starting at `i` (before `end`): `d+[.d*]` or `.d+`, then an optional
+ * exponent `e[+-]d+` taken only when complete. -1 when no number starts there. One pass, no backtracking.
+ */
+function unsignedEnd(s: string, i: number, end: number): number {
+  const start = i;
+  while (i < end && isDigit(s.charCodeAt(i))) i++;
+  const intDigits = i - start;
+  if (i < end && s.charCodeAt(i) === 46 /* . */) {
+    const dot = i++;
+    while (i < end && isDigit(s.charCodeAt(i))) i++;
+    if (intDigits === 0 && i === dot + 1) return -1;
+  } else if (intDigits === 0) return -1;
+  if (i < end && (s.charCodeAt(i) | 32) === 101 /* e or E */) {
+    let j = i + 1;
+    if (j < end && (s.charCodeAt(j) === 43 || s.charCodeAt(j) === 45)) j++;
+    const expStart = j;
+    while (j < end && isDigit(s.charCodeAt(j))) j++;
+    if (j > expStart) i = j;
+  }
+  tick(i - start + 1);
+  return i;
+}
+
+/** End of `[+-]?` + an unsigned number at `i`, or -1. */
+function signedEnd(s: string, i: number, end: number): number {
+  const c = s.charCodeAt(i);
+  return unsignedEnd(s, i < end && (c === 43 || c === 45) ? i + 1 : i, end);
+}
+
+/** A whole token is a decimal number (`[+-]?(d+[.d*]|.d+)([eE][+-]?d+)?`). */
+function isNumber(token: string): boolean {
+  return token.length > 0 && signedEnd(token, 0, token.length) === token.length;
+}
+
+/** `[+-]?d+,d+`: a number written with a decimal comma. */
+function isDecimalComma(token: string): boolean {
+  const n = token.length;
+  let i = n > 0 && (token[0] === "+" || token[0] === "-") ? 1 : 0;
+  const a = i;
+  while (i < n && isDigit(token.charCodeAt(i))) i++;
+  if (i === a || token[i] !== ",") return false;
+  const b = ++i;
+  while (i < n && isDigit(token.charCodeAt(i))) i++;
+  tick(n);
+  return i === n && i > b;
+}
+
+function decimalCommaError(token: string, line: number, column: number): CoefficientParseError {
+  return new CoefficientParseError(
+    `${describe(token)} looks like a number with a decimal comma: write it with a decimal point (${describe(token.replace(",", "."))}); a comma separates the I and Q columns. If these are I,Q columns, add the header line "i,q"`,
+    line,
+    column,
+  );
+}
+
 function parseNumber(token: string, line: number, column: number): number {
-  if (NUMBER.test(token)) {
+  if (isNumber(token)) {
     const v = Number(token);
     if (!Number.isFinite(v))
       throw new CoefficientParseError(`${describe(token)} is too large for a double`, line, column);
@@ -63,6 +155,7 @@ function parseNumber(token: string, line: number, column: number): number {
       column,
     );
   if (token === "") throw new CoefficientParseError("expected a number, found an empty field", line, column);
+  if (isDecimalComma(token)) throw decimalCommaError(token, line, column);
   throw new CoefficientParseError(`expected a number, found ${describe(token)}`, line, column);
 }
 
@@ -71,19 +164,64 @@ interface Line {
   text: string;
 }
 
+/** A comment line starts with #, % or //. */
+function isCommentStart(text: string, at: number): boolean {
+  const c = text[at];
+  return c === "#" || c === "%" || (c === "/" && text[at + 1] === "/");
+}
+
+/** Value lines (comments and blank lines dropped, a trailing comment cut off, trailing space trimmed). */
 function contentLines(text: string): Line[] {
   const out: Line[] = [];
-  const rows = text.split(/\r\n|\n|\r/);
-  for (let i = 0; i < rows.length; i++) {
-    let row = rows[i]!;
-    const trimmed = row.trim();
-    if (trimmed === "" || trimmed.startsWith("#") || trimmed.startsWith("//") || trimmed.startsWith("%"))
-      continue;
-    const hash = row.indexOf("#");
-    if (hash > 0) row = row.slice(0, hash);
-    const slashes = row.indexOf("//");
-    if (slashes > 0) row = row.slice(0, slashes);
-    out.push({ number: i + 1, text: row.replace(/\s+$/, "") });
+  const n = text.length;
+  let number = 0;
+  let start = 0;
+  while (start <= n) {
+    number++;
+    // One pass to the line end, noting the first "#" and "//" on the way.
+    let end = start;
+    let hash = -1;
+    let slashes = -1;
+    let first = -1;
+    for (; end < n; end++) {
+      const c = text.charCodeAt(end);
+      if (c === 10 || c === 13) break;
+      if (first < 0 && !isSpace(c)) first = end;
+      if (c === 35 /* # */ && hash < 0) hash = end;
+      else if (c === 47 /* / */ && slashes < 0 && text.charCodeAt(end + 1) === 47) slashes = end;
+      // A value line past the limit with no comment begun: refuse now rather than scan the rest of it.
+      if (
+        end - start > MAX_LINE_CHARS &&
+        hash < 0 &&
+        slashes < 0 &&
+        first >= 0 &&
+        !isCommentStart(text, first)
+      )
+        throw new CoefficientParseError(
+          `the line is longer than ${MAX_LINE_CHARS.toLocaleString("en")} characters; a value line may have at most ${MAX_LINE_CHARS.toLocaleString("en")} (one or two numbers per line)`,
+          number,
+          1,
+        );
+    }
+    tick(end - start + 1);
+    const next =
+      end < n && text.charCodeAt(end) === 13 && text.charCodeAt(end + 1) === 10 ? end + 2 : end + 1;
+    const comment = first >= 0 && isCommentStart(text, first);
+    if (first >= 0 && !comment) {
+      let stop = end;
+      if (hash > start && hash < stop) stop = hash;
+      if (slashes > start && slashes < stop) stop = slashes;
+      while (stop > start && isSpace(text.charCodeAt(stop - 1))) stop--;
+      tick(end - stop + 1);
+      if (stop - start > MAX_LINE_CHARS)
+        throw new CoefficientParseError(
+          `the line is ${(stop - start).toLocaleString("en")} characters long; a value line may have at most ${MAX_LINE_CHARS.toLocaleString("en")} (one or two numbers per line)`,
+          number,
+          1,
+        );
+      if (stop > first) out.push({ number, text: text.slice(start, stop) });
+    }
+    start = next;
   }
   return out;
 }
@@ -95,18 +233,31 @@ interface Field {
 
 function splitFields(line: string, separator: "," | ";" | "\t" | "space"): Field[] {
   const fields: Field[] = [];
+  const n = line.length;
+  tick(n + 1);
   if (separator === "space") {
-    const re = /\S+/g;
-    let m: RegExpExecArray | null;
-    while ((m = re.exec(line))) fields.push({ token: m[0], column: m.index + 1 });
+    let i = 0;
+    while (i < n) {
+      while (i < n && isSpace(line.charCodeAt(i))) i++;
+      if (i >= n) break;
+      const s = i;
+      while (i < n && !isSpace(line.charCodeAt(i))) i++;
+      fields.push({ token: line.slice(s, i), column: s + 1 });
+    }
     return fields;
   }
   let start = 0;
   for (;;) {
     const at = line.indexOf(separator, start);
-    const raw = at < 0 ? line.slice(start) : line.slice(start, at);
-    const lead = raw.length - raw.trimStart().length;
-    fields.push({ token: raw.trim().replace(/^"(.*)"$/, "$1"), column: start + lead + 1 });
+    const stop = at < 0 ? n : at;
+    let a = start;
+    let b = stop;
+    while (a < b && isSpace(line.charCodeAt(a))) a++;
+    while (b > a && isSpace(line.charCodeAt(b - 1))) b--;
+    // A field in double quotes is read without them.
+    if (b - a >= 2 && line[a] === '"' && line[b - 1] === '"')
+      fields.push({ token: line.slice(a + 1, b - 1), column: a + 1 });
+    else fields.push({ token: line.slice(a, b), column: a + 1 });
     if (at < 0) break;
     start = at + 1;
   }
@@ -115,8 +266,9 @@ function splitFields(line: string, separator: "," | ";" | "\t" | "space"): Field
 
 function detectSeparator(sample: string): "," | ";" | "\t" | "space" {
   if (sample.includes("\t")) return "\t";
-  if (sample.includes(",")) return ",";
+  // "0,5;0,25": semicolon-separated columns of decimal-comma numbers; the fields then say so.
   if (sample.includes(";")) return ";";
+  if (sample.includes(",")) return ",";
   return "space";
 }
 
@@ -258,6 +410,86 @@ function jsonErrorOffset(text: string): number {
   }
 }
 
+/** Whitespace removed (one pass). */
+function withoutSpace(s: string): string {
+  tick(s.length + 1);
+  let out = "";
+  let from = 0;
+  for (let i = 0; i < s.length; i++) {
+    if (isSpace(s.charCodeAt(i))) {
+      if (i > from) out += s.slice(from, i);
+      from = i + 1;
+    }
+  }
+  return from === 0 ? s : out + s.slice(from);
+}
+
+/** `[+-] [number] [*] (i|j)` from `i` to exactly `end`: the signed imaginary part, or null. */
+function imaginaryAt(t: string, i: number, end: number, signRequired: boolean): number | null {
+  const c = t.charCodeAt(i);
+  let sign = 0;
+  if (i < end && (c === 43 || c === 45)) {
+    sign = c === 45 ? -1 : 1;
+    i++;
+  } else if (signRequired) return null;
+  const numEnd = unsignedEnd(t, i, end);
+  // A unit with no number is 1j, but only after a sign: "j" alone is not a value.
+  const magnitude = numEnd >= 0 ? Number(t.slice(i, numEnd)) : sign !== 0 ? 1 : NaN;
+  if (sign === 0) sign = 1;
+  let j = numEnd < 0 ? i : numEnd;
+  if (t[j] === "*") j++;
+  if (j + 1 !== end || (t[j] !== "i" && t[j] !== "j") || Number.isNaN(magnitude)) return null;
+  return sign * magnitude;
+}
+
+/**
+ * One complex value, white space already removed: `a`, `a±bj`, `±bj`, `bj` (also `i`, an optional `*`
+ * before the unit, optional parentheses). [re, im], or null when it is none of these.
+ */
+function complexParts(t: string): [number, number] | null {
+  let s = 0;
+  let e = t.length;
+  if (t[s] === "(") s++;
+  if (e > s && t[e - 1] === ")") e--;
+  if (s >= e) return null;
+  const a = signedEnd(t, s, e);
+  if (a >= 0) {
+    if (a === e) return [Number(t.slice(s, e)), 0];
+    const im = imaginaryAt(t, a, e, true);
+    if (im !== null) return [Number(t.slice(s, a)), im];
+  }
+  // No real part: `±bj` or `bj`.
+  const im = imaginaryAt(t, s, e, false);
+  return im === null ? null : [0, im];
+}
+
+/**
+ * Does a value line look like complex text? It ends in the unit i or j (before an optional ")") and holds
+ * nothing but digits, ".", "e", signs, "*", parentheses and white space. A near miss is then read as complex
+ * text, whose error names what was expected.
+ */
+function looksComplex(text: string): boolean {
+  let e = text.length;
+  while (e > 0 && (isSpace(text.charCodeAt(e - 1)) || text[e - 1] === ")")) e--;
+  if (e === 0 || (text[e - 1] !== "i" && text[e - 1] !== "j")) return false;
+  tick(text.length + 1);
+  for (let i = 0; i < e - 1; i++) {
+    const c = text.charCodeAt(i);
+    if (!(
+      isDigit(c) ||
+      isSpace(c) ||
+      c === 46 ||
+      c === 43 ||
+      c === 45 ||
+      c === 42 ||
+      c === 40 ||
+      (c | 32) === 101
+    ))
+      return false;
+  }
+  return true;
+}
+
 function parseComplexText(lines: Line[]): ParsedCoefficients {
   checkCount(lines.length, lines[MAX_UPLOAD_VALUES]?.number ?? 0);
   const re = new Float64Array(lines.length);
@@ -265,8 +497,8 @@ function parseComplexText(lines: Line[]): ParsedCoefficients {
   lines.forEach((l, i) => {
     const token = l.text.trim();
     const column = l.text.length - l.text.trimStart().length + 1;
-    const m = COMPLEX.exec(token.replace(/\s+/g, ""));
-    if (!m || (m[1] === undefined && m[4] === undefined) || token === "") {
+    const parts = complexParts(withoutSpace(token));
+    if (!parts) {
       if (NON_FINITE.test(token) || /nan|inf/i.test(token))
         throw new CoefficientParseError(
           `${describe(token)} is not allowed: values must be finite numbers`,
@@ -279,19 +511,7 @@ function parseComplexText(lines: Line[]): ParsedCoefficients {
         column,
       );
     }
-    let r = 0;
-    let q = 0;
-    if (m[4] !== undefined) {
-      // "bj" alone: the leading number is the imaginary part.
-      if (m[2] === undefined) {
-        q = m[1] === undefined ? 1 : Number(m[1]);
-      } else {
-        r = m[1] === undefined ? 0 : Number(m[1]);
-        q = (m[2] === "-" ? -1 : 1) * (m[3] === undefined ? 1 : Number(m[3]));
-      }
-    } else {
-      r = Number(m[1]);
-    }
+    const [r, q] = parts;
     if (!Number.isFinite(r) || !Number.isFinite(q))
       throw new CoefficientParseError(`${describe(token)} is too large for a double`, l.number, column);
     re[i] = r;
@@ -300,11 +520,50 @@ function parseComplexText(lines: Line[]): ParsedCoefficients {
   return { format: "complex-text", complex: true, re, im, header: null };
 }
 
+/**
+ * Refuse a file of decimal-comma numbers before it is read as I,Q columns: either the first value line
+ * holds only decimal-comma tokens (between spaces, tabs or semicolons) and at least two of them, or every
+ * line is `[±]0,ddd` / `[±]1,ddd` with no space (a real table of magnitudes up to 1 in decimal-comma notation,
+ * which as I,Q pairs would be integers I of -1, 0 or 1 beside unsigned Q) and some fraction is not just 0 or 1.
+ * A header line ("i,q") says the columns are meant, and skips the second check.
+ */
+function refuseDecimalCommas(lines: Line[], separator: "," | ";" | "\t" | "space"): void {
+  const first = lines[0]!;
+  // "0,5 0,25", "0,5;0,25", "0,5<TAB>0,25": decimal-comma pairs.
+  const tokens = splitFields(first.text.replaceAll(";", " "), "space");
+  if (tokens.length >= 2 && tokens.every((f) => isDecimalComma(f.token)))
+    throw decimalCommaError(tokens[0]!.token, first.number, tokens[0]!.column);
+  if (separator !== ",") return;
+  let fractionBeyondBit = false;
+  for (const l of lines) {
+    const t = l.text.trim();
+    if (!isDecimalComma(t)) return;
+    const unsignedInt =
+      t[0] === "+" || t[0] === "-" ? t.slice(1, t.indexOf(",")) : t.slice(0, t.indexOf(","));
+    if (unsignedInt !== "0" && unsignedInt !== "1") return;
+    const fraction = t.slice(t.indexOf(",") + 1);
+    if (fraction !== "0" && fraction !== "1") fractionBeyondBit = true;
+  }
+  if (fractionBeyondBit) {
+    const col = first.text.length - first.text.trimStart().length + 1;
+    throw decimalCommaError(first.text.trim(), first.number, col);
+  }
+}
+
 /** Parse an uploaded coefficient file (bytes or text). Throws CoefficientParseError with the position. */
 export function parseCoefficients(
   input: Uint8Array | string,
-  opts: { fileName?: string } = {},
+  opts: { fileName?: string; meter?: ScanMeter } = {},
 ): ParsedCoefficients {
+  meter = opts.meter ?? null;
+  try {
+    return parseAny(input, opts.fileName ?? "");
+  } finally {
+    meter = null;
+  }
+}
+
+function parseAny(input: Uint8Array | string, fileName: string): ParsedCoefficients {
   let text: string;
   if (typeof input === "string") {
     text = input;
@@ -323,22 +582,28 @@ export function parseCoefficients(
   }
   if (text.length > MAX_UPLOAD_BYTES) throw new CoefficientParseError(`the file is larger than 32 MiB`, 0, 0);
   if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
-  const name = (opts.fileName ?? "").toLowerCase();
-  const trimmed = text.trimStart();
-  if (name.endsWith(".json") || trimmed.startsWith("[") || trimmed.startsWith("{")) return parseJson(text);
+  const name = fileName.toLowerCase();
+  let lead = 0;
+  while (lead < text.length && isSpace(text.charCodeAt(lead))) lead++;
+  tick(lead + 1);
+  if (name.endsWith(".json") || text[lead] === "[" || text[lead] === "{") return parseJson(text);
 
   const lines = contentLines(text);
   if (lines.length === 0)
     throw new CoefficientParseError("the file has no values (only blank or comment lines)", 0, 0);
 
   // Complex text when the first value line carries an imaginary unit.
-  const firstData = lines.find((l) => /\d/.test(l.text)) ?? lines[0]!;
-  if (
-    /^\(?\s*[+-]?[\d.]*(?:[eE][+-]?\d+)?\s*[+-]?\s*[\d.]*(?:[eE][+-]?\d+)?\s*\*?\s*[ij]\s*\)?$/.test(
-      firstData.text.trim(),
-    )
-  )
-    return parseComplexText(lines);
+  let firstData = lines[0]!;
+  for (const l of lines) {
+    let digit = false;
+    for (let i = 0; i < l.text.length && !digit; i++) digit = isDigit(l.text.charCodeAt(i));
+    tick(l.text.length + 1);
+    if (digit) {
+      firstData = l;
+      break;
+    }
+  }
+  if (looksComplex(firstData.text)) return parseComplexText(lines);
 
   const separator = detectSeparator(firstData.text);
   const format: CoefficientFormat =
@@ -355,7 +620,7 @@ export function parseCoefficients(
   let body = lines;
   const firstFields = splitFields(lines[0]!.text, separator);
   if (
-    firstFields.some((f) => !NUMBER.test(f.token) && !NON_FINITE.test(f.token)) &&
+    firstFields.some((f) => !isNumber(f.token) && !NON_FINITE.test(f.token)) &&
     firstFields.some((f) => /[a-z]/i.test(f.token))
   ) {
     const names = firstFields.map((f) => f.token.toLowerCase());
@@ -376,6 +641,7 @@ export function parseCoefficients(
     body = lines.slice(1);
     if (body.length === 0) throw new CoefficientParseError("the file has a header but no values", 0, 0);
   }
+  if (!header || separator !== ",") refuseDecimalCommas(body, separator);
 
   // Which columns hold I and Q.
   const width = header ? header.length : splitFields(body[0]!.text, separator).length;

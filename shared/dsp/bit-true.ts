@@ -7,10 +7,12 @@
  * product and every partial sum of either accumulator is an integer of magnitude ≤ M·S (triangle
  * inequality). Float64 holds every integer of magnitude ≤ 2^53 exactly, so if M·S ≤ 2^53 each `*` and
  * `+` below is exact and the float path equals integer arithmetic; otherwise the BigInt path runs.
- * No FFT: its round-off would make the result approximate.
+ * No floating-point FFT: its round-off would make the result approximate. Long filters use the exact
+ * number-theoretic convolution instead (DIRECT_MAX_MACS), whose accumulators are the same integers.
  */
 import { absoluteCodeSum, accumulatorGrowth, checkSignedCodes } from "./accumulator";
 import { checkInteger, checkSignal, MAX_SAMPLES } from "./check";
+import { exactComplexConvolution } from "./exact-convolution";
 import {
   checkOverflowMode,
   checkRoundingMode,
@@ -57,8 +59,15 @@ export interface BitTrueResult {
   maxAbsAccumulator: string;
   /** Worst-case accumulator width for the declared input and coefficient widths (accumulatorGrowth). */
   accumulatorBits: number;
-  exactPath: "float64" | "bigint";
+  /** How the exact accumulators were computed: direct float64, direct BigInt, or NTT (exact-convolution.ts). */
+  exactPath: "float64" | "bigint" | "ntt";
 }
+
+/**
+ * Above this many multiply-accumulates (Nx × Nh) the accumulators come from the exact number-theoretic
+ * convolution (shared/dsp/exact-convolution.ts): the same integers, in O(L log L) instead of Nx × Nh.
+ */
+export const DIRECT_MAX_MACS = 2 ** 27;
 
 /** Largest integer magnitude the float path may meet (every integer up to it is exact in float64). */
 export const FLOAT_EXACT_LIMIT = 2 ** 53;
@@ -175,7 +184,8 @@ function convolveBigInt(x: IntegerSignal, h: IntegerSignal, ny: number): { re: b
  * replace its inside without touching rounding, saturation or the golden files.
  */
 export type ExactAccumulators =
-  { path: "float64"; re: Float64Array; im: Float64Array } | { path: "bigint"; re: bigint[]; im: bigint[] };
+  | { path: "float64"; re: Float64Array; im: Float64Array }
+  | { path: "bigint" | "ntt"; re: bigint[]; im: bigint[] };
 
 /** Runs the exact multiply-accumulate of a complex integer FIR over the full convolution. */
 export function exactAccumulate(input: IntegerSignal, coefficients: IntegerSignal): ExactAccumulators {
@@ -184,6 +194,9 @@ export function exactAccumulate(input: IntegerSignal, coefficients: IntegerSigna
   const ny = input.re.length + coefficients.re.length - 1;
   if (ny > MAX_SAMPLES)
     throw new RangeError(`output would have ${ny} samples; at most ${MAX_SAMPLES} are allowed`);
+  // Long convolutions: the same exact integers by number-theoretic transforms (exact-convolution.ts).
+  if (input.re.length * coefficients.re.length > DIRECT_MAX_MACS)
+    return { path: "ntt", ...exactComplexConvolution(input, coefficients) };
   const bound = BigInt(largestMagnitude(input)) * absoluteCodeSum(coefficients);
   if (bound <= BigInt(FLOAT_EXACT_LIMIT)) {
     const re = new Float64Array(ny);

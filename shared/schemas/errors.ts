@@ -26,5 +26,7 @@ export const ERROR_CODES = [
   "cross_site",
   /** Signed in on a temporary password: only the password change (and sign-out, who-am-I) until done. */
   "password_change_required",
+  /** The database cannot be reached (503): nothing was changed; try again shortly. */
+  "service_unavailable",
 ] as const;
 export type ErrorCode = (typeof ERROR_CODES)[number];

@@ -1,3 +1,4 @@
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import {
   CoefficientParseError,
@@ -118,4 +119,147 @@ describe("parseCoefficients: refused files name the line and column", () => {
     expectError(new Uint8Array(MAX_UPLOAD_BYTES + 1), /at most 33554432 \(32 MiB\)/);
   });
   it("bytes that are not UTF-8", () => expectError(new Uint8Array([0x31, 0xff, 0x0a]), /not UTF-8/));
+});
+
+describe("parseCoefficients: decimal commas are refused with a hint", () => {
+  it("a single column of 0,5-style numbers", () =>
+    expectError(
+      "0,5\n-0,25\n1,0\n",
+      /line 1, column 1: "0,5" looks like a number with a decimal comma: write it with a decimal point \("0\.5"\)/,
+      1,
+      1,
+    ));
+  it("decimal-comma pairs between spaces, semicolons or tabs", () => {
+    expectError("0,5 -0,25\n", /"0,5" looks like a number with a decimal comma/, 1, 1);
+    expectError("# pairs\n0,5;-0,25\n", /decimal comma/, 2, 1);
+    expectError("0,5\t0,25\n", /decimal comma/, 1, 1);
+  });
+  it("a decimal-comma field among semicolon columns names its column", () =>
+    expectError(
+      "0.5;0.25\n0.5;0,25\n",
+      /line 2, column 5: "0,25" looks like a number with a decimal comma/,
+      2,
+      5,
+    ));
+  it("integer I,Q pairs, a header or 0/1 phase pairs are still read as columns", () => {
+    expect(arr(parseCoefficients("1,2\n3,4").im)).toEqual([2, 4]);
+    expect(arr(parseCoefficients("i,q\n0,5\n0,25\n").im)).toEqual([5, 25]);
+    expect(arr(parseCoefficients("1,0\n0,1\n-1,0\n").re)).toEqual([1, 0, -1]);
+    expect(arr(parseCoefficients("0,-5\n0,5\n").im)).toEqual([-5, 5]);
+  });
+});
+
+describe("parseCoefficients: long lines", () => {
+  it("a value line over the limit is refused at once, naming its length", () =>
+    expectError(
+      "1".repeat(40_000),
+      /line 1, column 1: the line is longer than 1,024 characters; a value line may have at most 1,024/,
+      1,
+      1,
+    ));
+  it("a long comment is skipped", () =>
+    expect(arr(parseCoefficients(`# ${"x".repeat(10_000)}\n0.5\n`).re)).toEqual([0.5]));
+  it("a bare imaginary part bj is read", () => {
+    const r = parseCoefficients("2j\n0.5\n-3*i\n");
+    expect(arr(r.im)).toEqual([2, 0, -3]);
+  });
+});
+
+// The patterns the parser used before its scanners were hand-written: an independent statement of the
+// number and complex grammar, run here only on short tokens (they backtrack on long ones).
+const OLD_NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
+const OLD_COMPLEX =
+  /^\(?\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)?\s*(?:([+-])\s*((?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)?\s*\*?\s*([ij]))?\s*\)?$/;
+const tokenArb = fc
+  .array(fc.constantFrom("0", "1", "9", ".", "e", "E", "+", "-", "j", "i", "*", "(", ")", " "), {
+    maxLength: 10,
+  })
+  .map((a) => a.join(""));
+
+describe("parseCoefficients: the scanners agree with the regular grammar", () => {
+  it("numbers: a token is read iff the number pattern matches it, to the same value", () =>
+    fc.assert(
+      fc.property(tokenArb, (t) => {
+        const tok = t.replace(/\s/g, "");
+        if (tok === "" || /[ij]\)*$/.test(tok)) return; // complex text, checked below
+        let value: number | null = null;
+        try {
+          value = parseCoefficients(`${tok}\n`).re[0]!;
+        } catch {
+          value = null;
+        }
+        if (OLD_NUMBER.test(tok)) expect(value).toBe(Number(tok));
+        else expect(value).toBeNull();
+      }),
+      { numRuns: 2000 },
+    ));
+  it("complex text: every line the complex pattern reads gives the same parts", () =>
+    fc.assert(
+      fc.property(tokenArb, (t) => {
+        const tok = t.replace(/\s/g, "");
+        const m = OLD_COMPLEX.exec(tok);
+        if (!m || m[4] === undefined) return; // the old pattern's real-only and bj cases are not complex lines
+        const r = parseCoefficients(`1+1j\n${tok}\n`);
+        const re = m[1] === undefined ? 0 : Number(m[1]);
+        const im = (m[2] === "-" ? -1 : 1) * (m[3] === undefined ? 1 : Number(m[3]));
+        expect([r.re[1], r.im[1]]).toEqual([re, im]);
+      }),
+      { numRuns: 2000 },
+    ));
+});
+
+describe("parseCoefficients: cost grows linearly with the input (operation count, not time)", () => {
+  // Lines that make backtracking patterns quadratic or worse: long digit runs with a bad end, runs of
+  // white space before a character, repeated exponents, signs and parentheses.
+  const unit = fc.constantFrom(
+    "1",
+    "0",
+    ".",
+    "e",
+    "+",
+    "-",
+    " ",
+    "\t",
+    "j",
+    "(",
+    ")",
+    ",",
+    ";",
+    "x",
+    "#",
+    "/",
+  );
+  const adversarial = fc.record({
+    piece: fc.array(unit, { minLength: 1, maxLength: 6 }).map((a) => a.join("")),
+    repeat: fc.integer({ min: 1, max: 300 }),
+    tail: fc.constantFrom("", "x", "j", "1e", ",", "\n0.5", "\n1+2j", " "),
+    lines: fc.integer({ min: 1, max: 4 }),
+  });
+  it("steps ≤ 40 × characters for every adversarial file, refused or not", () =>
+    fc.assert(
+      fc.property(adversarial, ({ piece, repeat, tail, lines }) => {
+        const line = piece.repeat(repeat) + tail;
+        const text = Array.from({ length: lines }, () => line).join("\n");
+        const meter = { steps: 0 };
+        try {
+          parseCoefficients(text, { meter });
+        } catch (e) {
+          expect(e).toBeInstanceOf(CoefficientParseError);
+        }
+        expect(meter.steps).toBeLessThanOrEqual(40 * (text.length + 1));
+      }),
+      { numRuns: 500 },
+    ));
+  it("doubling a long line at most doubles the steps (ratio of counts)", () => {
+    const steps = (n: number) => {
+      const meter = { steps: 0 };
+      try {
+        parseCoefficients(`${"1".repeat(n)}x\n`, { meter });
+      } catch {
+        /* refused: the count is what matters */
+      }
+      return meter.steps;
+    };
+    for (const n of [100, 400, 1000]) expect(steps(2 * n)).toBeLessThanOrEqual(2.2 * steps(n));
+  });
 });

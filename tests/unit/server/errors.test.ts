@@ -58,3 +58,28 @@ describe("errorBody", () => {
     });
   });
 });
+
+describe("errorHandler while the database is down", () => {
+  it("answers 503 service_unavailable with a clear message and Retry-After, for a real refused connection", async () => {
+    const { default: express } = await import("express");
+    const { default: request } = await import("supertest");
+    const { default: pg } = await import("pg");
+    const { errorHandler, isDatabaseUnavailable } = await import("../../../server/http/errors");
+    // Port 1 on the loopback: nothing listens there, so pg fails as it does when PostgreSQL is stopped.
+    const pool = new pg.Pool({ connectionString: "postgres://nobody:x@127.0.0.1:1/none", max: 1 });
+    const app = express();
+    app.get("/x", async () => {
+      await pool.query("select 1");
+    });
+    app.use(errorHandler);
+    const res = await request(app).get("/x");
+    await pool.end();
+    expect(res.status).toBe(503);
+    expect(res.headers["retry-after"]).toBe("10");
+    expect(res.body.error.code).toBe("service_unavailable");
+    expect(res.body.error.message).toMatch(/database is not reachable/);
+    expect(isDatabaseUnavailable(new Error("syntax error at or near"))).toBe(false);
+    expect(isDatabaseUnavailable({ code: "57P01" })).toBe(true);
+    expect(isDatabaseUnavailable({ code: "23505" })).toBe(false);
+  });
+});
