@@ -242,12 +242,16 @@ function vsNumpy(): string {
     "| --- | ---: | ---: | ---: | ---: | ---: | --- |",
     ...ratioRows,
     "",
-    "Growth (one pass per size, CPU ms of the computing thread, and ms per million N·log2 N):",
-    "",
-    "| samples | product (ms) | per N·log N | numpy/scipy (ms) | per N·log N | ratio |",
-    "| ---: | ---: | ---: | ---: | ---: | ---: |",
-    ...growth,
-    "",
+    ...(growth.length
+      ? [
+          "Growth (one pass per size, CPU ms of the computing thread, and ms per million N·log2 N):",
+          "",
+          "| samples | product (ms) | per N·log N | numpy/scipy (ms) | per N·log N | ratio |",
+          "| ---: | ---: | ---: | ---: | ---: | ---: |",
+          ...growth,
+          "",
+        ]
+      : []),
     `Peak RSS of the Node process (sampled every 5 ms): ${(rssRatios / 2 ** 20).toFixed(0)} MiB up to 262,144 samples (goal ≤ 256 MiB), ${(peakRss / 2 ** 20).toFixed(0)} MiB with the 1,048,576-sample growth case.`,
   ].join("\n");
 }
