@@ -30,8 +30,8 @@ function verifyBundle(zip: Buffer, samples: number) {
       ["rx", samples],
     ]);
     // The expected golden output is the full convolution of the stimulus with the rx table.
-    const expected = u.read("golden/expected.txt").toString("utf8").trimEnd().split("\n");
-    const stimulus = u.read("golden/stimulus.txt").toString("utf8").trimEnd().split("\n");
+    const expected = u.read("golden/scenario/expected.txt").toString("utf8").trimEnd().split("\n");
+    const stimulus = u.read("golden/scenario/stimulus.txt").toString("utf8").trimEnd().split("\n");
     expect(expected.length).toBe(stimulus.length + samples - 1);
   } finally {
     u.cleanup();

@@ -17,7 +17,7 @@ describe("GET /api/templates", () => {
     const builtins = templates.filter((x) => x.builtin);
     expect(builtins.map((x) => [x.id, x.extension, x.version])).toEqual(
       expect.arrayContaining([
-        ["readmemh", "hex", 1],
+        ["readmemh", "hex", 2],
         ["csv", "csv", 1],
         ["c-header", "h", 1],
         ["vhdl-package", "vhd", 1],

@@ -27,6 +27,7 @@ let releaseId: number;
 let firmware: Agent;
 let author: Agent;
 let bundle: ReturnType<typeof unzipToTemp>;
+/** The receive table's datapath as the manifest states it (bundle format 2.0). */
 let golden: { outputShift: number; rounding: string; overflow: string; expected: { bits: number } };
 let csvPath: string;
 
@@ -39,7 +40,7 @@ function simulate(...flags: string[]): Buffer {
     model,
     [
       csvPath,
-      path.join(bundle.dir, "golden/stimulus.txt"),
+      path.join(bundle.dir, "golden/scenario/stimulus.txt"),
       String(golden.outputShift),
       String(golden.expected.bits),
       golden.rounding,
@@ -77,11 +78,25 @@ beforeAll(async () => {
   const zip = await bundleOf(firmware, releaseId);
   bundle = unzipToTemp(zip.body);
   const manifest = JSON.parse(bundle.read("manifest.json").toString("utf8")) as {
-    golden: typeof golden;
-    tables: { role: string; exports: { template: string; path: string }[] }[];
+    tables: {
+      role: string;
+      exports: { template: string; path: string }[];
+      datapath: {
+        outputShift: number;
+        outputRounding: string;
+        outputOverflow: string;
+        outputBits: number;
+      } | null;
+    }[];
   };
-  golden = manifest.golden;
   const rx = manifest.tables.find((x) => x.role === "rx")!;
+  const dp = rx.datapath!;
+  golden = {
+    outputShift: dp.outputShift,
+    rounding: dp.outputRounding,
+    overflow: dp.outputOverflow,
+    expected: { bits: dp.outputBits },
+  };
   csvPath = path.join(bundle.dir, rx.exports.find((e) => e.template === "csv")!.path);
 });
 
@@ -99,7 +114,11 @@ describe("verification runs", () => {
     });
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     const v = VerificationResponseSchema.parse(res.body).verification;
-    const expectedLines = bundle.read("golden/expected.txt").toString("utf8").trim().split("\n").length;
+    const expectedLines = bundle
+      .read("golden/scenario/expected.txt")
+      .toString("utf8")
+      .trim()
+      .split("\n").length;
     expect(v).toMatchObject({
       vectorSet: "scenario",
       verdict: "pass",
@@ -131,7 +150,7 @@ describe("verification runs", () => {
   });
 
   it("passes the set's own expected.txt and the same output as $readmemh hex with 7 samples of pipeline fill", async () => {
-    const own = await upload(firmware, bundle.read("golden/expected.txt"), "expected.txt");
+    const own = await upload(firmware, bundle.read("golden/scenario/expected.txt"), "expected.txt");
     expect(VerificationResponseSchema.parse(own.body).verification.verdict).toBe("pass");
     const hex = await upload(firmware, simulate("--hex", "--latency", "7"), "sim_scenario.hex");
     expect(hex.status, JSON.stringify(hex.body)).toBe(201);
@@ -141,7 +160,7 @@ describe("verification runs", () => {
       latencySamples: 7,
       latencySource: "searched",
     });
-    const ownHex = await upload(firmware, bundle.read("golden/expected.hex"), "expected.hex", {
+    const ownHex = await upload(firmware, bundle.read("golden/scenario/expected.hex"), "expected.hex", {
       latency: "0",
     });
     expect(VerificationResponseSchema.parse(ownHex.body).verification).toMatchObject({
@@ -160,14 +179,14 @@ describe("verification runs", () => {
       expectedPath,
       Buffer.concat([
         Buffer.from(`# fir-model output, ${golden.expected.bits}-bit I Q\n`),
-        bundle.read("golden/expected.txt"),
+        bundle.read("golden/scenario/expected.txt"),
       ]),
     );
     const cmp = spawnSync("cmp", [expectedPath, brokenPath], { encoding: "utf8" });
     const line = Number(/line (\d+)/.exec(cmp.stdout)?.[1]);
     expect(line).toBeGreaterThan(1);
     const index = line - 2;
-    const expectedLine = bundle.read("golden/expected.txt").toString("utf8").split("\n")[index]!;
+    const expectedLine = bundle.read("golden/scenario/expected.txt").toString("utf8").split("\n")[index]!;
     const brokenLine = broken.toString("utf8").split("\n")[index + 1]!;
     const [er, ei] = expectedLine.split(" ").map(Number);
     const [gr, gi] = brokenLine.split(" ").map(Number);
@@ -204,11 +223,11 @@ describe("verification runs", () => {
     ["a letter in Q", "1 2\n3 4\n5 x\n", "out.txt", 3, 3],
     ["a missing Q", "1 2\n3\n", "out.txt", 2, 2],
     ["a comma", "1,2\n", "out.txt", 1, 2],
-    ["a value beyond the 32-bit output", "1 2\n4294967296 0\n", "out.txt", 2, 1],
+    ["a value beyond the 16-bit output", "1 2\n65536 0\n", "out.txt", 2, 1],
     ["no samples at all", "# nothing\n", "out.txt", 1, 1],
-    ["an x from the simulator", "00000001 00000002\n0000000X 00000000\n", "out.hex", 2, 8],
-    ["an odd number of hex words", "00000001 00000002\n00000003\n", "out.hex", 2, 1],
-    ["a hex word too wide", "000000001 00000000\n", "out.hex", 1, 1],
+    ["an x from the simulator", "0001 0002\n000X 0000\n", "out.hex", 2, 4],
+    ["an odd number of hex words", "0001 0002\n0003\n", "out.hex", 2, 1],
+    ["a hex word too wide", "00001 0000\n", "out.hex", 1, 1],
   ])("refuses %s with its line and column, storing nothing", async (_what, text, name, line, column) => {
     const before = await runCount();
     const res = await upload(firmware, Buffer.from(text), name);
@@ -221,11 +240,11 @@ describe("verification runs", () => {
   it("refuses an unknown vector set, a missing file and a bad latency", async () => {
     const before = await runCount();
     const set = expectError(
-      await upload(firmware, simulate(), "x.txt", { vectorSet: "impulse" }),
+      await upload(firmware, simulate(), "x.txt", { vectorSet: "no-such-set" }),
       400,
       "validation_failed",
     );
-    expect(set.message).toMatch(/no vector set "impulse"; it has scenario/);
+    expect(set.message).toMatch(/no vector set "no-such-set"; it has scenario/);
     const none = await firmware
       .post(`/api/releases/${releaseId}/verifications`)
       .field("vectorSet", "scenario");
@@ -260,12 +279,17 @@ describe("verification runs", () => {
     expect(rel.verification).toMatchObject({
       latest: { verdict: "pass", vectorSet: "scenario" },
       passedSets: ["scenario"],
-      sets: ["scenario"],
+      sets: ["scenario", "impulse", "worst-case", "rounding", "random-full-scale"],
     });
     const s = ReleaseSummarySchema.parse(
       (await firmware.get(`/api/releases/${releaseId}/summary`)).body.summary,
     );
-    expect(s.vectorSets.map((v) => [v.name, v.expected.text])).toEqual([["scenario", "golden/expected.txt"]]);
+    expect(s.vectorSets.map((v) => [v.name, v.expected.text])).toEqual(
+      ["scenario", "impulse", "worst-case", "rounding", "random-full-scale"].map((n) => [
+        n,
+        `golden/${n}/expected.txt`,
+      ]),
+    );
     expect(s.tables.map((x) => [x.role, x.wordLength, x.fractionLength, x.signed])).toEqual([
       ["tx", 16, 15, true],
       ["rx", 16, 15, true],

@@ -48,7 +48,7 @@ describe("npm run verify", () => {
     ).secret;
     const bundle = unzipToTemp((await bundleOf(firmware, r.release.id)).body);
     dir = mkdtempSync(path.join(tmpdir(), "tapwright-verify-script-"));
-    const expected = bundle.read("golden/expected.txt").toString("utf8");
+    const expected = bundle.read("golden/scenario/expected.txt").toString("utf8");
     bundle.cleanup();
     expectedPath = path.join(dir, "sim_out.txt");
     writeFileSync(expectedPath, `# captured by the testbench\n${expected}`);
@@ -95,7 +95,7 @@ describe("npm run verify", () => {
   it("exits 4 for an unknown release or vector set and 3 when the server cannot be reached", async () => {
     const none = await verify(["coastwatch-s/No such design@1.0.0", "--set", "scenario", expectedPath], env);
     expect(none.code).toBe(4);
-    expect((await verify([spec, "--set", "worst-case", expectedPath], env)).code).toBe(4);
+    expect((await verify([spec, "--set", "no-such-set", expectedPath], env)).code).toBe(4);
     const down = await verify([spec, "--set", "scenario", expectedPath], {
       ...env,
       TAPWRIGHT_URL: "http://127.0.0.1:9",

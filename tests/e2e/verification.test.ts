@@ -32,7 +32,7 @@ beforeAll(async () => {
   const zip = await JSZip.loadAsync(
     await (await firmware.page.request.get(`/api/releases/${release.id}/bundle`)).body(),
   );
-  expected = await zip.file("golden/expected.txt")!.async("string");
+  expected = await zip.file("golden/scenario/expected.txt")!.async("string");
   const lines = expected.split("\n");
   const [re, im] = lines[BROKEN_INDEX]!.split(" ").map(Number);
   lines[BROKEN_INDEX] = `${re! + 1} ${im}`;
