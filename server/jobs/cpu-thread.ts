@@ -38,8 +38,13 @@ port.on("message", async (msg: { id: number; task: keyof typeof cpuTasks; arg: u
   } catch (e) {
     const err = e instanceof Error ? e : new Error(String(e));
     const fields: Record<string, unknown> = {};
+    // Plain values and arrays of them (a MaterializeError's content path) cross the thread boundary.
     for (const [k, v] of Object.entries(err))
-      if (typeof v !== "function" && typeof v !== "object") fields[k] = v;
+      if (
+        (typeof v !== "function" && typeof v !== "object") ||
+        (Array.isArray(v) && v.every((x) => typeof x === "string" || typeof x === "number"))
+      )
+        fields[k] = v;
     port.postMessage({ id: msg.id, ok: false, error: { name: err.name, message: err.message, fields } });
   }
 });

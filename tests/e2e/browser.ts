@@ -35,7 +35,14 @@ export interface GuardedPage {
 
 /** A fresh context (own cookies) whose page records off-host requests and uncaught page errors. */
 export async function openPage(browser: Browser): Promise<GuardedPage> {
-  const context = await browser.newContext({ baseURL: baseUrl(), viewport: { width: 1280, height: 800 } });
+  // page.request (Playwright's API client, used for set-up steps) is not a browser fetch: it sends neither Origin
+  // nor Sec-Fetch-Site, so the server's cross-site guard (server/http/same-origin.ts) would refuse its POSTs.
+  // The page's own requests carry the same Origin anyway.
+  const context = await browser.newContext({
+    baseURL: baseUrl(),
+    viewport: { width: 1280, height: 800 },
+    extraHTTPHeaders: { Origin: new URL(baseUrl()).origin },
+  });
   const page = await context.newPage();
   const origin = new URL(baseUrl()).origin;
   const foreign: string[] = [];

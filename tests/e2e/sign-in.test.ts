@@ -4,6 +4,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO, launch, openPage, signIn } from "./browser";
 
 let browser: Browser;
+/** The seeded projects only: the admin journey (journeys.test.ts) adds "Harbour trial …" projects to the shared demo. */
+const seeded = (names: string[]) => names.filter((n) => !n.startsWith("Harbour trial "));
 beforeAll(async () => {
   browser = await launch();
 });
@@ -25,7 +27,7 @@ describe("sign-in and the home page per role", () => {
     await page.getByRole("region", { name: "Server" }).waitFor();
     const table = page.getByRole("table", { name: "My projects" });
     // Seeded: both projects visible to the admin.
-    expect(await table.getByRole("link").allTextContents()).toEqual([
+    expect(seeded(await table.getByRole("link").allTextContents())).toEqual([
       "Coastwatch-S surveillance radar",
       "Harbour lidar trials",
     ]);
@@ -73,7 +75,9 @@ describe("sign-in and the home page per role", () => {
     const table = page.getByRole("table", { name: "My projects" });
     await table.waitFor();
     // Membership scoping: the lidar trial has only admin and author.
-    expect(await table.getByRole("link").allTextContents()).toEqual(["Coastwatch-S surveillance radar"]);
+    expect(seeded(await table.getByRole("link").allTextContents())).toEqual([
+      "Coastwatch-S surveillance radar",
+    ]);
     expect(await page.getByRole("region", { name: "My roles" }).textContent()).toContain("acceptance limits");
     expect(await page.getByText("Active sessions").count()).toBe(0);
     await context.close();
@@ -84,7 +88,9 @@ describe("sign-in and the home page per role", () => {
     await signIn(page, DEMO.firmware.username, DEMO.firmware.password, DEMO.firmware.displayName);
     const table = page.getByRole("table", { name: "My projects" });
     await table.waitFor();
-    expect(await table.getByRole("link").allTextContents()).toEqual(["Coastwatch-S surveillance radar"]);
+    expect(seeded(await table.getByRole("link").allTextContents())).toEqual([
+      "Coastwatch-S surveillance radar",
+    ]);
     expect(await page.getByRole("region", { name: "My roles" }).textContent()).toContain("download bundles");
     await page.goto("/admin/users");
     await page.getByRole("heading", { name: "Not available to you" }).waitFor();
@@ -128,7 +134,7 @@ describe("session", () => {
     await page.waitForURL(/\/projects\?q=harbour$/);
     const table = page.getByRole("table", { name: "Projects" });
     await table.waitFor();
-    expect(await table.getByRole("link").allTextContents()).toEqual(["Harbour lidar trials"]);
+    expect(seeded(await table.getByRole("link").allTextContents())).toEqual(["Harbour lidar trials"]);
     await context.close();
   });
 });

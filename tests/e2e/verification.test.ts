@@ -114,7 +114,7 @@ describe("verification runs in the browser", () => {
       .or(page.getByText(/Error of run \d+/))
       .first()
       .waitFor();
-    await page.getByRole("table", { name: "Vector sets" }).getByText("FAIL").waitFor();
+    await page.getByRole("table", { name: "Vector sets" }).getByText("FAIL", { exact: true }).waitFor();
     await screenshot(page, "verification-release");
     await expectAccessible(page, "verification-release");
 
