@@ -1,18 +1,26 @@
 import type { HTMLAttributes, ReactNode, TdHTMLAttributes, ThHTMLAttributes } from "react";
 import { cn } from "@/lib/cn";
 
-/** A compact data table in a bordered frame; `label` names it for assistive tech. */
+/**
+ * A compact data table in a bordered frame; `label` names it for assistive tech. `scrollable`: a table wide
+ * enough to scroll sideways gets a keyboard stop on its frame, so it can be scrolled without a mouse.
+ */
 export function Table({
   label,
   children,
   className,
+  scrollable,
 }: {
   label: string;
   children: ReactNode;
   className?: string;
+  scrollable?: boolean;
 }) {
   return (
-    <div className={cn("overflow-x-auto rounded border border-paper-300 bg-paper-50", className)}>
+    <div
+      className={cn("overflow-x-auto rounded border border-paper-300 bg-paper-50", className)}
+      {...(scrollable ? { tabIndex: 0, role: "region", "aria-label": `${label} (scrolls sideways)` } : {})}
+    >
       <table aria-label={label} className="w-full border-collapse text-sm">
         {children}
       </table>

@@ -59,9 +59,9 @@ describe("release size limits (server/bundles/limits.ts)", () => {
     });
 
   it("names the table and the limits when a draft could never be released", () => {
-    expect(unreleasableTable([{ role: "tx", length: 262_144 }])).toBeNull();
-    expect(unreleasableTable([{ role: "rx", length: 262_145 }])).toMatch(
-      /^The rx table would have 262,145 samples; a release can carry tables of at most 262,144 samples/,
+    expect(unreleasableTable([{ role: "tx", length: 65_536 }])).toBeNull();
+    expect(unreleasableTable([{ role: "rx", length: 65_537 }])).toMatch(
+      /^The rx table would have 65,537 samples; a release can carry tables of at most 65,536 samples/,
     );
     expect(oversizedFiles([{ path: "tables/rx/x.json", size: MAX_EXPORT_FILE_BYTES + 1 }])).toMatch(
       /tables\/rx\/x\.json would be 100,663,297 bytes; an exported file may have at most 100,663,296/,

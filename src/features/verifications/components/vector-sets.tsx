@@ -20,7 +20,7 @@ export function VectorSetsTable({
   const latest = latestPerSet(runs);
   const anyAcc = sets.some((s) => s.maxAbsAccumulator !== null);
   return (
-    <Table label="Vector sets">
+    <Table label="Vector sets" scrollable>
       <thead>
         <tr>
           <Th>Set</Th>
